@@ -1,0 +1,7 @@
+"""knotledger: census tabulation and database builder for knot theory."""
+from .diagram import Diagram
+from .errors import KnotLedgerError, NotationError, DiagramError, SpecError, BudgetExceeded
+from .notation import parse
+
+__version__ = "0.1.0"
+__all__ = ["Diagram", "parse", "KnotLedgerError", "NotationError", "DiagramError", "SpecError", "BudgetExceeded", "__version__"]

@@ -1,0 +1,78 @@
+"""The ``knotledger`` command: one subcommand per module, dispatched here.
+
+Each subcommand module provides ``add_arguments(parser)`` and ``main(args) -> int``.
+Exit codes (DESIGN.md, contract): 0 success, 1 checked and found false, 2 bad input
+or usage.  Errors are one line on stderr, never a traceback.
+"""
+
+from __future__ import annotations
+
+import argparse
+import importlib
+import sys
+
+from .errors import KnotLedgerError
+
+__all__ = ["main"]
+
+#: subcommand -> (module, one-line help)
+COMMANDS = {
+    "show": ("pipeline.show", "every invariant of one diagram, with the colouring matrix"),
+    "draw": ("pipeline.draw", "draw a diagram with arc labels and a witness colouring"),
+    "run": ("pipeline.run", "run a census spec and write the Parquet tables"),
+    "query": ("pipeline.query", "read-only SQL over a census directory"),
+    "check": ("pipeline.claims", "test a claimed formula on every row of a census"),
+    "fit": ("pipeline.fit", "propose a closed formula in the family parameters"),
+    "report": ("pipeline.report", "write report.md, report.html and plots for a census"),
+}
+
+
+class _Parser(argparse.ArgumentParser):
+    def error(self, message: str) -> None:  # one line, exit 2
+        sys.stderr.write(f"{self.prog}: error: {message}\n")
+        raise SystemExit(2)
+
+
+def build_parser() -> argparse.ArgumentParser:
+    parser = _Parser(prog="knotledger",
+                     description="Census tabulation and database builder for knot theory.")
+    from . import __version__
+    parser.add_argument("--version", action="version", version=f"knotledger {__version__}")
+    sub = parser.add_subparsers(dest="command", metavar="COMMAND", parser_class=_Parser)
+    for name, (modname, help_text) in COMMANDS.items():
+        p = sub.add_parser(name, help=help_text, description=help_text)
+        try:
+            mod = importlib.import_module(modname)
+        except ModuleNotFoundError as err:
+            if err.name != modname:
+                raise
+            p.set_defaults(_missing=name)
+            continue
+        mod.add_arguments(p)
+        p.set_defaults(_main=mod.main)
+    return parser
+
+
+def main(argv: list[str] | None = None) -> int:
+    parser = build_parser()
+    args = parser.parse_args(argv)
+    if not getattr(args, "command", None):
+        parser.print_help(sys.stderr)
+        return 2
+    if getattr(args, "_missing", None):
+        sys.stderr.write(f"knotledger: command {args._missing!r} is not available in this build\n")
+        return 2
+    try:
+        return int(args._main(args) or 0)
+    except KnotLedgerError as err:
+        sys.stderr.write(f"knotledger {args.command}: error: {err}\n")
+        return 2
+    except BrokenPipeError:
+        return 0
+    except KeyboardInterrupt:
+        sys.stderr.write("knotledger: interrupted\n")
+        return 130
+
+
+if __name__ == "__main__":  # pragma: no cover
+    raise SystemExit(main())

@@ -1,0 +1,192 @@
+"""Parse and format diagram strings ``KIND:ARGS`` (DESIGN.md, contract).
+
+=================================  ================================================
+``pd:[[1,5,2,4],[3,1,4,6],...]``   PD code (JSON); ``pd:[...] loops=k`` adds k free loops
+``dt:4 6 2``                       Dowker-Thistlethwaite code of a knot
+``braid:1,1,1``                    closure of a braid word (i = σ_i, -i = σ_i⁻¹)
+``torus:p,q``                      torus knot/link T(p, q)
+``pretzel:p1,p2,...``              pretzel link P(p1, ..., pk)
+``rational:α/β``                   two-bridge link b(α, β)
+``conway:a1 a2 ... an``            rational link with fraction a1 + 1/(a2 + ...)
+``montesinos:β1/α1,...,βr/αr``     Montesinos link; an integer n means n/1
+=================================  ================================================
+
+Every parse error is a :class:`~pipeline.errors.NotationError` with a one-line
+reason naming the offending token.
+"""
+
+from __future__ import annotations
+
+import json
+import re
+from fractions import Fraction
+from typing import Callable
+
+from .diagram import Diagram
+from .errors import DiagramError, NotationError
+
+__all__ = ["parse", "format_pd", "KINDS", "split_notation"]
+
+MAX_CROSSINGS = 100_000  # refuse absurd parameters before building anything
+
+
+def _ints(kind: str, text: str, *, sep: str = r"[,\s]+", allow_empty: bool = False) -> list[int]:
+    text = text.strip()
+    if not text:
+        if allow_empty:
+            return []
+        raise NotationError(f"{kind}: no arguments given")
+    out = []
+    for tok in re.split(sep, text):
+        if tok == "":
+            raise NotationError(f"{kind}: empty entry in {text!r}")
+        if not re.fullmatch(r"[+-]?\d+", tok):
+            raise NotationError(f"{kind}: {tok!r} is not an integer")
+        if len(tok.lstrip("+-")) > 9:
+            raise NotationError(f"{kind}: {tok!r} is too large")
+        out.append(int(tok))
+    return out
+
+
+def _check_size(kind: str, n: int) -> None:
+    if n > MAX_CROSSINGS:
+        raise NotationError(f"{kind}: the diagram would have {n} crossings (limit {MAX_CROSSINGS})")
+
+
+def _fraction(kind: str, tok: str) -> Fraction:
+    m = re.fullmatch(r"\s*([+-]?\d+)\s*(?:/\s*([+-]?\d+))?\s*", tok)
+    if not m:
+        raise NotationError(f"{kind}: {tok.strip()!r} is not an integer or a fraction β/α")
+    num, den = int(m.group(1)), int(m.group(2) or 1)
+    if den == 0:
+        raise NotationError(f"{kind}: {tok.strip()!r} has denominator 0")
+    return Fraction(num, den)
+
+
+def _parse_pd(args: str) -> Diagram:
+    m = re.fullmatch(r"\s*(.*?)\s*(?:loops\s*=\s*(\S+))?\s*", args, re.S)
+    body, loops = m.group(1), m.group(2)
+    try:
+        data = json.loads(body)
+    except (ValueError, RecursionError) as err:
+        raise NotationError(f"pd: {body[:40]!r} is not a JSON list of 4-lists ({err.__class__.__name__})") from err
+    if not isinstance(data, list):
+        raise NotationError(f"pd: expected a JSON list of crossings, got {type(data).__name__}")
+    free = 0
+    if loops is not None:
+        if not re.fullmatch(r"\d+", loops):
+            raise NotationError(f"pd: loops={loops!r} is not a non-negative integer")
+        free = int(loops)
+    _check_size("pd", len(data))
+    return Diagram.from_pd(data, free_loops=free)
+
+
+def _parse_braid(args: str) -> Diagram:
+    from .families import braid
+    word = _ints("braid", args, allow_empty=False)
+    _check_size("braid", len(word))
+    return braid.diagram(word)
+
+
+def _parse_torus(args: str) -> Diagram:
+    from .families import torus
+    vals = _ints("torus", args)
+    if len(vals) != 2:
+        raise NotationError(f"torus: expected two parameters p,q, got {len(vals)}")
+    p, q = vals
+    _check_size("torus", abs(q) * max(abs(p) - 1, 0))
+    return torus.diagram(p, q)
+
+
+def _parse_pretzel(args: str) -> Diagram:
+    from .families import pretzel
+    vals = _ints("pretzel", args)
+    _check_size("pretzel", sum(map(abs, vals)))
+    return pretzel.diagram(vals)
+
+
+def _parse_rational(args: str) -> Diagram:
+    from .families import two_bridge
+    m = re.fullmatch(r"\s*([+-]?\d+)\s*/\s*([+-]?\d+)\s*", args)
+    if not m:
+        raise NotationError(f"rational: {args.strip()!r} is not of the form α/β")
+    alpha, beta = int(m.group(1)), int(m.group(2))
+    _check_size("rational", sum(map(abs, two_bridge.continued_fraction(alpha, beta))))
+    return two_bridge.diagram(alpha, beta)
+
+
+def _parse_conway(args: str) -> Diagram:
+    from .families import two_bridge
+    terms = _ints("conway", args)
+    _check_size("conway", sum(map(abs, terms)))
+    return two_bridge.conway_diagram(terms)
+
+
+def _parse_montesinos(args: str) -> Diagram:
+    from .families import montesinos, two_bridge
+    if not args.strip():
+        raise NotationError("montesinos: no tangles given")
+    fr = [_fraction("montesinos", tok) for tok in args.split(",")]
+    _check_size("montesinos", sum(sum(map(abs, two_bridge.continued_fraction(f.numerator, f.denominator))) for f in fr))
+    return montesinos.diagram(fr)
+
+
+def _parse_dt(args: str) -> Diagram:
+    from . import dt
+    code = _ints("dt", args)
+    _check_size("dt", len(code))
+    return dt.diagram(code)
+
+
+KINDS: dict[str, Callable[[str], Diagram]] = {
+    "pd": _parse_pd,
+    "dt": _parse_dt,
+    "braid": _parse_braid,
+    "torus": _parse_torus,
+    "pretzel": _parse_pretzel,
+    "rational": _parse_rational,
+    "conway": _parse_conway,
+    "montesinos": _parse_montesinos,
+}
+
+
+def split_notation(text: str) -> tuple[str, str]:
+    """Split ``KIND:ARGS``; raise NotationError naming the kind if it is unknown."""
+    if not isinstance(text, str):
+        raise NotationError(f"diagram: expected a string KIND:ARGS, got {type(text).__name__}")
+    kind, sep, args = text.strip().partition(":")
+    kind = kind.strip().lower()
+    if not sep:
+        raise NotationError(f"diagram: {text.strip()[:40]!r} has no KIND: prefix (one of {', '.join(KINDS)})")
+    if kind not in KINDS:
+        raise NotationError(f"diagram: unknown kind {kind!r} (one of {', '.join(KINDS)})")
+    return kind, args
+
+
+def parse(text: str) -> Diagram:
+    """Parse a diagram string ``KIND:ARGS`` into a :class:`Diagram`.
+
+    Raises
+    ------
+    NotationError
+        With a one-line reason naming the offending token; never anything else.
+
+    Examples
+    --------
+    >>> parse("torus:2,3").writhe
+    3
+    """
+    kind, args = split_notation(text)
+    try:
+        return KINDS[kind](args)
+    except NotationError:
+        raise
+    except RecursionError as err:
+        raise NotationError(f"{kind}: input nested too deeply") from err
+    except (ValueError, TypeError, OverflowError, KeyError, IndexError) as err:
+        raise NotationError(f"{kind}: could not read {args.strip()[:40]!r} ({err})") from err
+
+
+def format_pd(diagram: Diagram) -> str:
+    """Format a diagram back to ``pd:`` notation."""
+    return diagram.to_notation()
