@@ -1,0 +1,148 @@
+"""One census row: every invariant of one diagram, each computed in isolation.
+
+:func:`compute_all` is what ``knotledger show`` prints and what a census worker stores.
+A budget overrun or a failure in one invariant never loses the others: the value is
+``None`` and the reason is appended to ``status`` (``ok`` when nothing went wrong).
+"""
+
+from __future__ import annotations
+
+import time
+from math import isqrt
+from typing import Any, Callable, Optional
+
+from ..diagram import Diagram
+from ..errors import BudgetExceeded
+
+__all__ = ["compute_all", "ALGORITHM_VERSIONS"]
+
+#: Bumped whenever a change alters stored values; written into Parquet metadata.
+ALGORITHM_VERSIONS = {
+    "coloring": "1",
+    "alexander": "1",
+    "jones": "1",
+    "signature": "1",
+    "checks": "1",
+    "chirality": "1",
+}
+
+DEFAULT_MIN_COLORS_BUDGET = 10_000
+
+
+def _attempt(problems: list[str], timings: dict, name: str, fn: Callable[[], Any]) -> Any:
+    t0 = time.perf_counter()
+    try:
+        return fn()
+    except BudgetExceeded as err:
+        problems.append(str(err))
+    except Exception as err:  # one invariant failing must not lose the row
+        problems.append(f"error in {name}: {type(err).__name__}: {str(err).splitlines()[0] if str(err) else ''}".rstrip(": "))
+    finally:
+        timings[name] = time.perf_counter() - t0
+    return None
+
+
+def compute_all(diagram: Diagram, *, max_modulus: int = 16, jones_budget: Optional[int] = None,
+                min_colors_budget: Optional[int] = None) -> dict:
+    """Every invariant of ``diagram`` as a dict (the census row before storage).
+
+    Keys: ``crossings``, ``components``, ``free_loops``, ``writhe``, ``alternating``,
+    ``determinant``, ``invariant_factors``, ``colorings`` ({n: count}),
+    ``colorable_moduli``, ``witnesses`` ({p: colours per arc}), ``min_colors``
+    ({p: int or None}), ``alexander``, ``conway``, ``jones`` (Laurent or None),
+    ``signature``, ``nullity``, ``bounds`` (dict), ``chirality``, ``chirality_reason``,
+    ``checks`` ({name: bool}), ``checks_failed`` (list of names), ``status``,
+    ``timings`` (seconds per invariant).
+    """
+    from . import coloring
+
+    problems: list[str] = []
+    timings: dict[str, float] = {}
+    row: dict[str, Any] = {
+        "crossings": diagram.n_crossings,
+        "components": diagram.n_components,
+        "free_loops": diagram.free_loops,
+        "writhe": diagram.writhe,
+        "alternating": diagram.is_alternating() if diagram.n_crossings else None,
+    }
+    budget = DEFAULT_MIN_COLORS_BUDGET if min_colors_budget is None else min_colors_budget
+
+    def colouring_part():
+        factors = coloring.invariant_factors(diagram)
+        det = coloring.determinant(diagram)
+        counts = coloring.coloring_counts(diagram, max_modulus=max_modulus)
+        witnesses, fewest = {}, {}
+        for p in _primes_upto(max_modulus):
+            if det % p == 0:
+                w = coloring.witness_coloring(diagram, p)
+                if w is not None:
+                    witnesses[p] = list(w)
+                    fewest[p] = coloring.min_colors(diagram, p, budget=budget)
+                    if fewest[p] is None:
+                        problems.append(f"skipped: min_colors budget {budget} (p={p})")
+        return {
+            "determinant": det,
+            "invariant_factors": list(factors),
+            "colorings": counts,
+            "colorable_moduli": [n for n, c in counts.items() if c > n],
+            "witnesses": witnesses,
+            "min_colors": fewest,
+        }
+
+    part = _attempt(problems, timings, "coloring", colouring_part)
+    row.update(part or {"determinant": None, "invariant_factors": None, "colorings": None,
+                        "colorable_moduli": None, "witnesses": None, "min_colors": None})
+
+    alexander = _optional_module("alexander")
+    row["alexander"] = row["conway"] = None
+    if alexander is not None:
+        row["alexander"] = _attempt(problems, timings, "alexander", lambda: alexander.alexander_polynomial(diagram))
+        row["conway"] = _attempt(problems, timings, "conway", lambda: alexander.conway_polynomial(diagram))
+
+    jones = _optional_module("jones")
+    row["jones"] = None
+    if jones is not None:
+        row["jones"] = _attempt(problems, timings, "jones",
+                                lambda: jones.jones_polynomial(diagram, budget=jones_budget))
+
+    signature = _optional_module("signature")
+    row["signature"] = row["nullity"] = None
+    if signature is not None:
+        row["signature"] = _attempt(problems, timings, "signature", lambda: signature.signature(diagram))
+        row["nullity"] = _attempt(problems, timings, "nullity", lambda: signature.nullity(diagram))
+
+    bounds = _optional_module("bounds")
+    row["bounds"] = None
+    if bounds is not None and hasattr(bounds, "all_bounds"):
+        row["bounds"] = _attempt(problems, timings, "bounds", lambda: bounds.all_bounds(diagram, row))
+
+    chirality = _optional_module("chirality")
+    row["chirality"], row["chirality_reason"] = "unknown", "not computed"
+    if chirality is not None:
+        verdict = _attempt(problems, timings, "chirality", lambda: chirality.chirality(diagram, row))
+        if verdict is not None:
+            row["chirality"], row["chirality_reason"] = verdict
+
+    checks = _optional_module("checks")
+    row["checks"] = {}
+    if checks is not None:
+        row["checks"] = _attempt(problems, timings, "checks", lambda: checks.run_checks(diagram, row)) or {}
+    row["checks_failed"] = sorted(k for k, ok in row["checks"].items() if not ok)
+    row["status"] = "; ".join(problems) if problems else "ok"
+    row["timings"] = timings
+    return row
+
+
+def _optional_module(name: str):
+    """The invariant module ``name`` if this build has it, else None."""
+    import importlib
+    try:
+        return importlib.import_module(f"{__package__}.{name}")
+    except ModuleNotFoundError as err:
+        if err.name != f"{__package__}.{name}":
+            raise
+        return None
+
+
+def _primes_upto(n: int) -> list[int]:
+    return [p for p in range(2, n + 1) if all(p % q for q in range(2, isqrt(p) + 1))]
