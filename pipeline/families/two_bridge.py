@@ -74,8 +74,6 @@ def conway_diagram(terms: Sequence[int]) -> Diagram:
     terms = [int(a) for a in terms]
     if not terms:
         raise NotationError("conway: no terms given")
-    if fraction_of(terms) is None:
-        raise NotationError(f"conway: {' '.join(map(str, terms))} has fraction ∞ (numerator 0), not a rational link")
     return _closure(terms)
 
 
