@@ -78,5 +78,7 @@ def test_random_knot_diagrams_round_trip_through_dt_up_to_mirror():
 
 
 def test_realisation_is_deterministic():
-    assert dt_diagram([4, 10, 8, 2, 6]).pd if False else True
-    assert dt_diagram([6, 8, 10, 2, 4]) == dt_diagram([6, 8, 10, 2, 4])
+    # the first planar choice in the documented order: b_1 = 0 fixes the reflection
+    first = dt_diagram([6, 8, 10, 2, 4])
+    assert first == dt_diagram([6, 8, 10, 2, 4])
+    assert first.to_notation() == dt_diagram((6, 8, 10, 2, 4)).to_notation()

@@ -31,14 +31,18 @@ PICTURE = 1
 
 
 def continued_fraction(num: int, den: int) -> list[int]:
-    """Terms [a1, ..., an] with num/den = a1 + 1/(a2 + ...), a2.. > 0 (Euclid, floor).
+    """Terms [a1, ..., an] with num/den = a1 + 1/(a2 + ...), all of the sign of num/den.
 
+    Euclid's algorithm on |num/den|, then every term negated for a negative fraction,
+    so the rational tangle built from it is alternating with Σ|a_i| crossings.
     ``den`` = 0 gives the empty list (the ∞ tangle).
     """
     if den == 0:
         return []
     if den < 0:
         num, den = -num, -den
+    if num < 0:
+        return [-a for a in continued_fraction(-num, den)]
     out = []
     while den:
         a = num // den
