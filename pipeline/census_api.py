@@ -1,0 +1,178 @@
+"""Read a census directory back into Python: :func:`open_census`.
+
+A census directory (written by ``knotledger run``) holds one directory of Parquet part
+files per table -- ``diagrams/``, ``colorings/``, ``knots/``, ``rejects/`` -- and a
+``manifest.json``.  Every part file of a table is read (the store guarantees that a
+directory never lists a chunk twice).  Exact integers stay exact: a column ``X`` that
+overflows int64 has a text twin ``X_text`` and :func:`exact_int` prefers it.
+
+Example
+-------
+>>> census = open_census("harbour")                               # doctest: +SKIP
+>>> census.diagrams.query("family == 'torus'")[["notation", "determinant"]]  # doctest: +SKIP
+"""
+
+from __future__ import annotations
+
+import json
+from dataclasses import dataclass, field
+from pathlib import Path
+from typing import Any, Optional
+
+from .errors import QueryError
+
+__all__ = ["TABLES", "Census", "open_census", "table_files", "census_path", "exact_int",
+           "parse_params"]
+
+#: The four tables of a census, in the order the report presents them.
+TABLES = ("diagrams", "colorings", "knots", "rejects")
+
+
+def census_path(directory: str | Path) -> Path:
+    """Return ``directory`` resolved, after checking that it holds a census.
+
+    Raises
+    ------
+    QueryError
+        If the directory does not exist or has no ``diagrams/`` table.
+    """
+    path = Path(directory).expanduser().resolve()
+    if not path.is_dir():
+        raise QueryError(f"census: {directory} is not a directory")
+    if not (path / "diagrams").is_dir():
+        raise QueryError(f"census: {directory} has no diagrams/ table (run `knotledger run` first)")
+    return path
+
+
+def table_files(directory: str | Path, table: str) -> list[Path]:
+    """The Parquet part files of ``table`` in a census directory, sorted by name."""
+    if table not in TABLES:
+        raise QueryError(f"census: unknown table {table!r} (tables: {', '.join(TABLES)})")
+    tdir = Path(directory) / table
+    if not tdir.is_dir():
+        return []
+    return sorted(p for p in tdir.glob("*.parquet") if p.is_file())
+
+
+def _read_table(directory: Path, table: str):
+    import pandas as pd
+    import pyarrow as pa
+    import pyarrow.parquet as pq
+
+    files = table_files(directory, table)
+    if not files:
+        return pd.DataFrame()
+    try:
+        tables = [pq.read_table(f) for f in files]
+        merged = pa.concat_tables(tables, promote_options="default")
+    except Exception as err:  # a damaged part file: one line, not a traceback
+        raise QueryError(f"census: cannot read {table}/ ({type(err).__name__}: {err})") from err
+    # types_mapper keeps nullable integers exact (no silent int -> float on nulls)
+    return merged.to_pandas(types_mapper=_nullable_types)
+
+
+def _nullable_types(arrow_type):
+    import pandas as pd
+    import pyarrow as pa
+
+    mapping = {pa.int8(): pd.Int8Dtype(), pa.int16(): pd.Int16Dtype(),
+               pa.int32(): pd.Int32Dtype(), pa.int64(): pd.Int64Dtype(),
+               pa.uint8(): pd.UInt8Dtype(), pa.uint16(): pd.UInt16Dtype(),
+               pa.uint32(): pd.UInt32Dtype(), pa.uint64(): pd.UInt64Dtype(),
+               pa.bool_(): pd.BooleanDtype()}
+    return mapping.get(arrow_type)
+
+
+@dataclass
+class Census:
+    """The tables of one census directory as pandas DataFrames.
+
+    Attributes
+    ----------
+    path : Path
+        The census directory.
+    diagrams, colorings, knots, rejects : pandas.DataFrame
+        One DataFrame per table (empty when the table has no part files).
+        Integer columns use pandas' nullable integer dtypes, so a null never turns a
+        column into floats.
+    manifest : dict
+        The parsed ``manifest.json`` (empty if absent).
+    """
+
+    path: Path
+    diagrams: Any
+    colorings: Any
+    knots: Any
+    rejects: Any
+    manifest: dict = field(default_factory=dict)
+
+
+def open_census(directory: str | Path) -> Census:
+    """Open a census directory and read its four tables into pandas DataFrames.
+
+    Parameters
+    ----------
+    directory : str or Path
+        A directory written by ``knotledger run``.
+
+    Returns
+    -------
+    Census
+        With attributes ``diagrams``, ``colorings``, ``knots``, ``rejects`` and ``manifest``.
+
+    Raises
+    ------
+    QueryError
+        If the directory is not a census or a part file cannot be read.
+    """
+    path = census_path(directory)
+    frames = {t: _read_table(path, t) for t in TABLES}
+    manifest: dict = {}
+    mpath = path / "manifest.json"
+    if mpath.is_file():
+        try:
+            manifest = json.loads(mpath.read_text())
+        except ValueError as err:
+            raise QueryError(f"census: manifest.json is not valid JSON ({err})") from err
+    return Census(path=path, manifest=manifest, **frames)
+
+
+def exact_int(value: Any, text: Any = None) -> Optional[int]:
+    """The exact Python int of a stored integer, preferring its decimal-text twin.
+
+    ``exact_int(None, "1234...")`` parses the text (used when the int64 column is null
+    on overflow); a missing value on both sides gives ``None``.
+    """
+    if text is not None and not _is_missing(text):
+        return int(str(text))
+    if value is None or _is_missing(value):
+        return None
+    return int(value)
+
+
+def _is_missing(value: Any) -> bool:
+    try:
+        import pandas as pd
+        res = pd.isna(value)
+        return bool(res) if not hasattr(res, "__len__") else False
+    except (TypeError, ValueError):
+        return False
+
+
+def parse_params(text: Any) -> dict:
+    """The family parameters of a row (``params`` column, JSON text) as a dict.
+
+    Integers stay ints; fractions stored as text (``"3/5"``) stay text.  A missing or
+    empty value gives ``{}``.
+    """
+    if text is None or _is_missing(text) or text == "":
+        return {}
+    if isinstance(text, dict):
+        return dict(text)
+    try:
+        value = json.loads(text)
+    except ValueError as err:
+        raise QueryError(f"census: params is not JSON: {str(text)[:60]!r}") from err
+    if not isinstance(value, dict):
+        raise QueryError(f"census: params is not a JSON object: {str(text)[:60]!r}")
+    return value
