@@ -1,4 +1,4 @@
-"""knotledger: census tabulation and database builder for knot theory."""
+"""knotledger: census tabulation and database builder for knots and links."""
 from .diagram import Diagram
 from .errors import KnotLedgerError, NotationError, DiagramError, SpecError, BudgetExceeded
 from .notation import parse

@@ -35,7 +35,7 @@ class _Parser(argparse.ArgumentParser):
 
 def build_parser() -> argparse.ArgumentParser:
     parser = _Parser(prog="knotledger",
-                     description="Census tabulation and database builder for knot theory.")
+                     description="Census tabulation and database builder for knots and links.")
     from . import __version__
     parser.add_argument("--version", action="version", version=f"knotledger {__version__}")
     sub = parser.add_subparsers(dest="command", metavar="COMMAND", parser_class=_Parser)

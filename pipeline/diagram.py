@@ -19,7 +19,7 @@ References
 ----------
 1. L. H. Kauffman, "State models and the Jones polynomial", Topology 26 (1987):
    diagrams as 4-valent plane graphs with over/under information.
-2. R. H. Crowell, R. H. Fox, *Introduction to Knot Theory* (1963): arcs (over-strands)
+2. R. H. Crowell, R. H. Fox, introductory textbook, Ginn (1963): arcs (over-strands)
    as the generators of the Wirtinger presentation.
 """
 

@@ -9,7 +9,7 @@ det P(p1, …, pk) = |Σ_i Π_{j≠i} p_j|.
 
 References
 ----------
-1. A. Kawauchi, *A Survey of Knot Theory*, Birkhäuser (1996), ch. 2.
+1. A. Kawauchi, survey monograph, Birkhäuser (1996), ch. 2.
 2. G. Burde, H. Zieschang, *Knots*, de Gruyter, ch. 12.
 """
 
