@@ -41,6 +41,7 @@ References
 from __future__ import annotations
 
 import heapq
+import math
 from typing import Optional
 
 import flint
@@ -59,18 +60,23 @@ _SMOOTHINGS = (((0, 1), (2, 3), 1), ((0, 3), (1, 2), -1))
 
 
 # --------------------------------------------------------------------- ordering
-def crossing_order(diagram: Diagram) -> list[int]:
+def crossing_order(diagram: Diagram, *, starts: int = 8) -> list[int]:
     """A processing order of the crossings that keeps the frontier short.
 
     Greedy: repeatedly take the unprocessed crossing whose addition changes the
     number of frontier edges least (most slots on frontier edges first), ties
     broken by the time the crossing first touched the processed region (breadth
-    first), then by index.  A crossing of a new connected piece is started only
-    when nothing touches the processed region.  Runs in O(n log n).
+    first).  A new connected piece is started only when nothing touches the
+    processed region.  The greedy pass is run from ``starts`` evenly spaced first
+    crossings and the order with the least estimated work is kept: the sum over
+    the steps of Catalan(width / 2), the number of planar matchings of ``width``
+    frontier edges.  Each pass is O(n log n).
 
     Parameters
     ----------
     diagram : Diagram
+    starts : int, optional
+        Number of first crossings tried (default 8).
 
     Returns
     -------
@@ -79,10 +85,43 @@ def crossing_order(diagram: Diagram) -> list[int]:
     """
     pd = diagram.pd
     n = len(pd)
+    if n == 0:
+        return []
     where: dict[int, list[int]] = {}
     for i, x in enumerate(pd):
         for v in x:
             where.setdefault(v, []).append(i)
+    k = max(1, min(starts, n))
+    best, best_cost = None, None
+    for first in sorted({j * n // k for j in range(k)}):
+        order = _greedy_order(pd, where, first)
+        cost = sum(_catalan(w // 2) for w in _widths(pd, order))
+        if best_cost is None or cost < best_cost:
+            best, best_cost = order, cost
+    return best
+
+
+def _catalan(m: int) -> int:
+    return math.comb(2 * m, m) // (m + 1)
+
+
+def _widths(pd, order):
+    """The number of frontier edges after each step of ``order``."""
+    frontier: set[int] = set()
+    out = []
+    for i in order:
+        for v in pd[i]:
+            if v in frontier:
+                frontier.discard(v)
+            else:
+                frontier.add(v)
+        out.append(len(frontier))
+    return out
+
+
+def _greedy_order(pd, where: dict[int, list[int]], first: int) -> list[int]:
+    """One greedy pass starting at crossing ``first`` (see :func:`crossing_order`)."""
+    n = len(pd)
     # shared[i]: slots of i on frontier edges (other end processed);
     # fresh[i]: slots of i on edges whose other end is another unprocessed crossing.
     # Adding i changes the frontier size by fresh[i] - shared[i].
@@ -100,10 +139,13 @@ def crossing_order(diagram: Diagram) -> list[int]:
             if not done[i] and change == fresh[i] - shared[i]:
                 pick = i
                 break
-        if pick < 0:  # start a new connected piece
-            while done[next_untouched]:
-                next_untouched += 1
-            pick = next_untouched
+        if pick < 0:  # start a (new) connected piece
+            if not order:
+                pick = first
+            else:
+                while done[next_untouched]:
+                    next_untouched += 1
+                pick = next_untouched
         done[pick] = True
         order.append(pick)
         for v in pd[pick]:
@@ -120,20 +162,10 @@ def crossing_order(diagram: Diagram) -> list[int]:
 
 
 def frontier_width(diagram: Diagram, order: Optional[list[int]] = None) -> int:
-    """The largest number of frontier edges met along ``order`` (default: the greedy one)."""
+    """The largest number of frontier edges met along ``order`` (default: :func:`crossing_order`)."""
     if order is None:
         order = crossing_order(diagram)
-    pd = diagram.pd
-    frontier: set[int] = set()
-    best = 0
-    for i in order:
-        for v in pd[i]:
-            if v in frontier:
-                frontier.discard(v)
-            else:
-                frontier.add(v)
-        best = max(best, len(frontier))
-    return best
+    return max(_widths(diagram.pd, order), default=0)
 
 
 # --------------------------------------------------------------------- the programme
@@ -147,47 +179,93 @@ def _add(acc: Optional[tuple[int, flint.fmpz_poly]], off: int, poly: flint.fmpz_
     return off, poly + p1.left_shift(o1 - off)
 
 
+def _slot_plan(pd, order: list[int]) -> tuple[int, list[tuple[tuple[int, int, int, int, int], ...]]]:
+    """Give every frontier edge a fixed position ("slot") while it is open.
+
+    Returns the number of slots W and, per step of ``order``, the two smoothings
+    as ``(p1, q1, p2, q2, weight)``: the slots joined by the two smoothing arcs
+    and the exponent of A.  An edge entering the frontier takes the smallest free
+    slot; a kink edge (both ends at the crossing) takes a slot for this step only.
+    """
+    slot_of: dict[int, int] = {}
+    free: list[int] = []
+    width = 0
+    plan = []
+    for i in order:
+        x = pd[i]
+        here: dict[int, int] = {}
+        released = []
+        for v in x:
+            if v in here:
+                continue
+            if v in slot_of:  # its other end is processed: the edge closes now
+                here[v] = slot_of.pop(v)
+                released.append(here[v])
+            else:
+                s = heapq.heappop(free) if free else width
+                if s == width:
+                    width += 1
+                here[v] = s
+                if x.count(v) == 2:  # a kink edge: open for this step only
+                    released.append(s)
+                else:
+                    slot_of[v] = s
+        for s in released:
+            heapq.heappush(free, s)
+        plan.append(tuple((here[x[a]], here[x[b]], here[x[c]], here[x[d]], weight)
+                          for (a, b), (c, d), weight in _SMOOTHINGS))
+    return width, plan
+
+
 def _bracket_times_delta(diagram: Diagram, budget: Optional[int]) -> tuple[int, flint.fmpz_poly]:
-    """Σ over all Kauffman states of A^(#A − #B) δ^(loops), as (offset, poly)."""
-    pd = diagram.pd
+    """Σ over all Kauffman states of A^(#A − #B) δ^(loops), as (offset, poly).
+
+    A state of the programme is a tuple over the slots: the partner slot of each
+    open frontier edge under the matching, −1 for an unused slot.
+    """
     loop_factor = [(0, _ONE)]
     for _ in range(2):
         o, p = loop_factor[-1]
         loop_factor.append((o + _DELTA[0], p * _DELTA[1]))
-    frontier: tuple[int, ...] = ()
-    states: dict[tuple[int, ...], tuple[int, flint.fmpz_poly]] = {(): (0, _ONE)}
-    for i in crossing_order(diagram):
-        x = pd[i]
-        fset = set(frontier)
-        for v in x:
-            if v in fset:
-                fset.discard(v)
-            else:
-                fset.add(v)
-        new_frontier = tuple(sorted(fset))
+    width, plan = _slot_plan(diagram.pd, crossing_order(diagram))
+    states: dict[tuple[int, ...], tuple[int, flint.fmpz_poly]] = {(-1,) * width: (0, _ONE)}
+    for smoothings in plan:
         new_states: dict[tuple[int, ...], tuple[int, flint.fmpz_poly]] = {}
+        get = new_states.get
         for key, (off, poly) in states.items():
-            for (s, t), (u, w), weight in _SMOOTHINGS:
-                m = dict(zip(frontier, key))
+            for p1, q1, p2, q2, weight in smoothings:
+                m = list(key)
                 loops = 0
-                for p, q in ((x[s], x[t]), (x[u], x[w])):
+                for p, q in ((p1, q1), (p2, q2)):
                     if p == q:  # a kink edge closed by this smoothing arc
                         loops += 1
                         continue
-                    if m.get(p) == q:
-                        del m[p], m[q]
+                    mp, mq = m[p], m[q]
+                    if mp == q:  # the arc closes a loop
+                        m[p] = m[q] = -1
                         loops += 1
                         continue
-                    ep = m.pop(p) if p in m else p
-                    eq = m.pop(q) if q in m else q
+                    if mp >= 0:  # p was open: it becomes interior, its partner the path end
+                        m[p] = -1
+                        ep = mp
+                    else:
+                        ep = p
+                    if mq >= 0:
+                        m[q] = -1
+                        eq = mq
+                    else:
+                        eq = q
                     m[ep] = eq
                     m[eq] = ep
-                new_key = tuple(m[v] for v in new_frontier)
-                lo, lp = loop_factor[loops]
-                new_states[new_key] = _add(new_states.get(new_key), off + weight + lo, poly * lp if loops else poly)
+                new_key = tuple(m)
+                if loops:
+                    lo, lp = loop_factor[loops]
+                    new_states[new_key] = _add(get(new_key), off + weight + lo, poly * lp)
+                else:
+                    new_states[new_key] = _add(get(new_key), off + weight, poly)
             if budget is not None and len(new_states) > budget:
                 raise BudgetExceeded("jones", budget)
-        frontier, states = new_frontier, new_states
+        states = new_states
     (off, poly), = states.values()
     for _ in range(diagram.free_loops):
         off, poly = off + _DELTA[0], poly * _DELTA[1]
