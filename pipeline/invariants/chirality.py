@@ -1,0 +1,164 @@
+"""Chirality verdicts from the Jones polynomial and the signature.
+
+Vocabulary (DESIGN.md, closed): this module returns ``chiral (jones)``,
+``chiral (signature)`` or ``unknown``; the normal-form verdicts are added by the
+classifier.
+
+* **Knots.**  The mirror image has V(1/t) and −σ (common practice), and neither
+  depends on the orientation of a knot.  So V(t) ≠ V(1/t) proves chirality
+  (``chiral (jones)``, tried first), and so does σ ≠ 0 (``chiral (signature)``).
+* **Links.**  V and σ depend on the orientations of the components.  An amphichiral
+  unoriented link L is isotopic to its mirror as an unoriented link, so the set of
+  values {(V, σ)} over all orientations of L equals the set for the mirror, which is
+  {(V(1/t), −σ)}.  Different sets prove chirality; reversing every component changes
+  neither value, so it suffices to reverse the subsets of components not containing
+  component 0 (2^(c−1) orientations).  Example: the positive Hopf link has
+  V = −t^½ − t^{5/2}, σ = −1; with one component reversed it becomes the negative
+  Hopf link, V = −t^{−½} − t^{−5/2}, σ = +1 — exactly the mirror's values.  The two
+  sets agree and the verdict is ``unknown`` (the Hopf link is amphichiral as an
+  unoriented link).
+
+References
+----------
+1. V. F. R. Jones, "Hecke algebra representations of braid groups and link
+   polynomials", Ann. of Math. 126 (1987): V of the mirror image is V(1/t).
+2. K. Murasugi, "On a certain numerical invariant of link types", Trans. AMS 117
+   (1965): σ of the mirror image is −σ.
+"""
+
+from __future__ import annotations
+
+from itertools import combinations
+from typing import Any, Iterable, Optional
+
+from ..diagram import Diagram
+from ..poly import Laurent
+
+__all__ = ["chirality", "reverse_components", "orientation_values"]
+
+
+def reverse_components(diagram: Diagram, which: Iterable[int]) -> Diagram:
+    """The same diagram with the components ``which`` reversed (PD convention kept).
+
+    Parameters
+    ----------
+    diagram : Diagram
+    which : iterable of int
+        Indices into ``diagram.components`` (free loops need no reversal).
+
+    Returns
+    -------
+    Diagram
+        Labels of a reversed component with range lo..hi are mapped v ↦ lo + hi − v,
+        so they increase along the new direction; a crossing whose under-strand is
+        reversed is rotated by two slots so that it starts at the new incoming
+        under-strand.  Crossing signs between a reversed and a kept component change.
+
+    Raises
+    ------
+    ValueError
+        If an index is not a component index.
+
+    Examples
+    --------
+    >>> from pipeline.notation import parse
+    >>> reverse_components(parse("torus:2,2"), [1]).signs
+    (-1, -1)
+    """
+    comps = diagram.components
+    flip = set()
+    for k in which:
+        if not (isinstance(k, int) and 0 <= k < len(comps)):
+            raise ValueError(f"reverse_components: {k!r} is not a component index (0..{len(comps) - 1})")
+        flip.add(k)
+    if not flip:
+        return diagram
+    comp_of = diagram.component_of_label
+    new_label = {}
+    for k in flip:
+        lo, hi = min(comps[k]), max(comps[k])
+        for v in comps[k]:
+            new_label[v] = lo + hi - v
+    pd = []
+    for x in diagram.pd:
+        y = tuple(new_label.get(v, v) for v in x)
+        if comp_of[x[0]] in flip:
+            y = (y[2], y[3], y[0], y[1])
+        pd.append(y)
+    return Diagram.from_pd(pd, free_loops=diagram.free_loops)
+
+
+def orientation_values(diagram: Diagram, *, jones: bool = True, signature: bool = True,
+                       budget: Optional[int] = None) -> set[tuple]:
+    """{(V or None, σ or None)} over the orientations reversing subsets of components 1..c−1."""
+    from . import signature as sig_mod
+    jones_mod = None
+    if jones:
+        from . import jones as jones_mod
+    k = len(diagram.components)
+    out = set()
+    for r in range(k):
+        for subset in combinations(range(1, k), r):
+            d = reverse_components(diagram, subset)
+            v = jones_mod.jones_polynomial(d, budget=budget) if jones_mod else None
+            s = sig_mod.signature(d) if signature else None
+            out.add((v, s))
+    return out
+
+
+def _mirror_values(values: set[tuple]) -> set[tuple]:
+    return {(v.invert() if v is not None else None, -s if s is not None else None) for v, s in values}
+
+
+def chirality(diagram: Diagram, values: dict[str, Any]) -> tuple[str, str]:
+    """Chirality verdict and its reason, from Jones and signature.
+
+    Parameters
+    ----------
+    diagram : Diagram
+    values : dict
+        Already computed values: ``jones`` (Laurent or None when skipped) and
+        ``signature`` (int or None).  For links the other orientations are computed
+        here (Jones only when ``values['jones']`` was computed).
+
+    Returns
+    -------
+    (verdict, reason) : tuple of str
+        verdict in {``chiral (jones)``, ``chiral (signature)``, ``unknown``}.
+
+    Examples
+    --------
+    >>> from pipeline.notation import parse
+    >>> chirality(parse("torus:2,3"), {"jones": None, "signature": -2})[0]
+    'chiral (signature)'
+    """
+    v: Optional[Laurent] = values.get("jones")
+    s: Optional[int] = values.get("signature")
+    if len(diagram.components) <= 1:  # a knot (free loops only: the unknot/unlink family)
+        if diagram.free_loops and diagram.components:
+            return _link_verdict(diagram, v, s)
+        if v is not None and v != v.invert():
+            return "chiral (jones)", "V(t) != V(1/t)"
+        if s is not None and s != 0:
+            return "chiral (signature)", f"signature {s} != 0"
+        done = [n for n, x in (("jones", v), ("signature", s)) if x is not None]
+        if not done:
+            return "unknown", "jones and signature not computed"
+        return "unknown", f"{' and '.join(done)} {'agree' if len(done) > 1 else 'agrees'} with the mirror"
+    return _link_verdict(diagram, v, s)
+
+
+def _link_verdict(diagram: Diagram, v: Optional[Laurent], s: Optional[int]) -> tuple[str, str]:
+    use_jones, use_sig = v is not None, s is not None
+    if not (use_jones or use_sig):
+        return "unknown", "jones and signature not computed"
+    vals = orientation_values(diagram, jones=use_jones, signature=use_sig)
+    mirrored = _mirror_values(vals)
+    n = len(vals)
+    if use_jones and {x for x, _ in vals} != {x for x, _ in mirrored}:
+        return "chiral (jones)", f"Jones polynomials over {n} orientations differ from the mirror's"
+    if use_sig and {y for _, y in vals} != {y for _, y in mirrored}:
+        return "chiral (signature)", f"signatures over {n} orientations differ from the mirror's"
+    if vals != mirrored:
+        return "chiral (jones)", f"(Jones, signature) pairs over {n} orientations differ from the mirror's"
+    return "unknown", f"values over {n} orientations match the mirror's"
