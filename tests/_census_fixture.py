@@ -26,7 +26,7 @@ q = [2, 9]
 [[family]]
 kind = "pretzel"
 length = 3
-entries = [-4, 4]
+entries = [-3, 3]
 
 [[family]]
 kind = "two_bridge"
@@ -96,7 +96,7 @@ def _write_fixture(out: Path) -> Path:
     for p in range(2, 6):
         for q in range(2, 10):
             work.append(("torus", {"p": p, "q": q}, lambda p=p, q=q: torus.diagram(p, q)))
-    rng = [v for v in range(-4, 5) if v]
+    rng = [v for v in range(-3, 4) if v]
     for a in rng:
         for b in rng:
             for c in rng:
@@ -155,3 +155,13 @@ def _write_fixture(out: Path) -> Path:
             pq.write_table(pa.Table.from_pylist(chunk, schema=schema), out / name / f"part-{j:05d}.parquet")
     (out / "manifest.json").write_text(json.dumps({"chunks": [], "timings": {"total_seconds": 0.0}}))
     return out
+
+
+_CACHE: dict = {}
+
+
+def shared_census(tmp_path_factory) -> Path:
+    """One census per test session (built on first use; tests must not modify it)."""
+    if "dir" not in _CACHE:
+        _CACHE["dir"] = build_census(tmp_path_factory.mktemp("shared"))
+    return _CACHE["dir"]
