@@ -146,6 +146,10 @@ def test_unknots_and_unlinks():
     assert V("braid:1") == Laurent({0: 1})  # a one-crossing kink
     assert V("pd:[[1,1,2,2]]") == Laurent({0: 1})
     assert V("braid:1,-1") == UNLINK2
+    # crossingless diagrams: <k loops> = δ^(k−1) (Kauffman 1987)
+    assert V("pd:[] loops=1") == Laurent({0: 1})
+    assert V("pd:[] loops=3") == UNLINK2 * UNLINK2
+    assert kauffman_bracket(parse("pd:[] loops=2")) == Laurent({4: -1, -4: -1})
     assert kauffman_bracket(parse("braid:1,-1")) == Laurent({4: -1, -4: -1})  # δ
     # free loops: V(L ⊔ O) = (−t^½ − t^−½) V(L) *(common practice)*
     assert jones_polynomial(braid.diagram([1, 1, 1], strands=3)) == V("torus:2,3") * UNLINK2
@@ -315,7 +319,13 @@ def test_tiny_budget_is_skipped_with_message():
     assert jones_polynomial(parse("torus:4,5"), budget=1000) == V("torus:4,5")
 
 
-@pytest.mark.parametrize("budget", [0, -3, True, 2.5], ids=str)
+def test_zero_budget_skips_everything():
+    for text in ["torus:2,3", "braid:1,-1", "pd:[[1,1,2,2]]"]:
+        with pytest.raises(BudgetExceeded, match="skipped: jones budget 0"):
+            jones_polynomial(parse(text), budget=0)
+
+
+@pytest.mark.parametrize("budget", [-1, -3, True, 2.5, "9"], ids=str)
 def test_invalid_budget_is_refused(budget):
     with pytest.raises(ValueError, match="budget"):
         jones_polynomial(parse("torus:2,3"), budget=budget)

@@ -274,8 +274,11 @@ def _bracket_times_delta(diagram: Diagram, budget: Optional[int]) -> tuple[int, 
 
 def _bracket_pair(diagram: Diagram, budget: Optional[int]) -> tuple[int, flint.fmpz_poly]:
     """<D> as (offset, poly) with <unknot> = 1."""
-    if budget is not None and (isinstance(budget, bool) or not isinstance(budget, int) or budget < 1):
-        raise ValueError(f"jones: budget {budget!r} must be a positive integer or None")
+    if budget is not None:
+        if isinstance(budget, bool) or not isinstance(budget, int) or budget < 0:
+            raise ValueError(f"jones: budget {budget!r} must be a non-negative integer or None")
+        if budget == 0:  # even the empty matching is one state: always skipped
+            raise BudgetExceeded("jones", budget)
     off, poly = _bracket_times_delta(diagram, budget)
     quo, rem = divmod(poly, _DELTA[1])
     if not rem.is_zero():  # cannot happen: every state has at least one loop
@@ -296,7 +299,8 @@ def kauffman_bracket(diagram: Diagram, *, budget: Optional[int] = None) -> Laure
     ----------
     diagram : Diagram
     budget : int, optional
-        Largest number of boundary matchings kept at once; None means no limit.
+        Largest number of boundary matchings kept at once; None means no limit,
+        0 skips every diagram.
 
     Returns
     -------
@@ -310,7 +314,7 @@ def kauffman_bracket(diagram: Diagram, *, budget: Optional[int] = None) -> Laure
     BudgetExceeded
         ``skipped: jones budget N`` when more than ``budget`` matchings are needed.
     ValueError
-        When ``budget`` is not a positive integer.
+        When ``budget`` is not a non-negative integer.
 
     Examples
     --------
@@ -337,7 +341,8 @@ def jones_polynomial(diagram: Diagram, *, budget: Optional[int] = None) -> Laure
     ----------
     diagram : Diagram
     budget : int, optional
-        Largest number of boundary matchings kept at once; None means no limit.
+        Largest number of boundary matchings kept at once; None means no limit,
+        0 skips every diagram.
 
     Returns
     -------
@@ -350,7 +355,7 @@ def jones_polynomial(diagram: Diagram, *, budget: Optional[int] = None) -> Laure
     BudgetExceeded
         ``skipped: jones budget N`` when more than ``budget`` matchings are needed.
     ValueError
-        When ``budget`` is not a positive integer.
+        When ``budget`` is not a non-negative integer.
 
     Examples
     --------
