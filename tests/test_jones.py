@@ -13,7 +13,7 @@ from fractions import Fraction
 
 import pytest
 import sympy
-from hypothesis import HealthCheck, example, given, settings
+from hypothesis import HealthCheck, assume, example, given, settings
 from hypothesis import strategies as st
 
 from pipeline.errors import BudgetExceeded
@@ -301,6 +301,33 @@ def test_skein_relation_on_random_braids(wb, data):
     zero = braid.diagram(word[:k] + word[k + 1:], strands=strands)
     lhs = jones_polynomial(plus).shift(-2) - jones_polynomial(minus).shift(2)
     assert lhs == T_HALF * jones_polynomial(zero)
+
+
+@st.composite
+def montesinos_strings(draw):
+    """Random Montesinos/pretzel notations (zeros, ±1 entries and kinks included), ≤ 12 crossings."""
+    k = draw(st.integers(1, 4))
+    fracs = []
+    for _ in range(k):
+        a = draw(st.integers(1, 4))
+        b = draw(st.integers(-4, 4).filter(lambda b: b != 0 and math.gcd(a, b) == 1))
+        fracs.append(f"{b}/{a}")
+    return "montesinos:" + ",".join(fracs)
+
+
+@settings(max_examples=40, deadline=None, suppress_health_check=[HealthCheck.too_slow, HealthCheck.filter_too_much])
+@given(st.one_of(
+    montesinos_strings(),
+    st.lists(st.integers(-3, 3), min_size=1, max_size=4).map(lambda e: "pretzel:" + ",".join(map(str, e))),
+))
+@example("pretzel:0,0,3")
+@example("pretzel:1,-1,2")
+@example("dt:4 8 10 2 6")
+def test_random_tangle_diagrams_match_all_states_sum(text):
+    d = parse(text)
+    assume(d.n_crossings <= 12)
+    assert kauffman_bracket(d) == slow_state_sum(d)
+    assert jones_polynomial(d) == slow_jones(d)
 
 
 def test_crossing_order_is_a_permutation():
