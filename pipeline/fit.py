@@ -1,0 +1,370 @@
+"""``knotledger fit DIR --family KIND --target COLUMN``: propose a closed formula.
+
+Exact polynomial fitting in the family parameters.  For degree d = 0, 1, ..., D the
+target is matched against every polynomial with rational coefficients in the monomials
+of total degree <= d: a set of data points with linearly independent monomial vectors
+and the monomials the data separates are chosen by exact row reduction over Q
+(:class:`sympy.polys.matrices.DomainMatrix`), the square system is solved exactly, and
+the polynomial is then verified on *every* row with exact integer/fraction arithmetic.
+The first degree whose polynomial holds on every row -- and is over-determined, i.e.
+checked on more points than it has unknowns -- is reported.
+
+Since |Q| is not a polynomial (the pretzel determinant |p1p2 + p2p3 + p1p3|), when no
+polynomial fits, the square of the target is fitted at degrees 0..2D; an exact fit that
+factors as c·Q² (sympy's ``factor_list``) is reported as |Q| and re-verified row by row.
+
+``--by-parity`` fits each parity class of the parameters separately (the torus knot
+determinant is q for p even, p for q even and 1 for p, q both odd; Rolfsen, *Knots and
+Links*, ch. 7).  When the best polynomial of a class fails on a few rows it is still
+printed with its support and the failing rows (a robust refit ignores the failing
+points once or twice).
+
+The target is a column of ``diagrams`` or any expression of the safe language of
+:mod:`pipeline.safe_expr` (e.g. ``abs(signature)``); ``--where`` filters rows likewise.
+"""
+
+from __future__ import annotations
+
+import argparse
+import sys
+from collections import Counter, defaultdict
+from dataclasses import dataclass, field
+from fractions import Fraction
+from itertools import combinations_with_replacement
+from pathlib import Path
+from typing import Any, Optional, Sequence
+
+from .census_api import Census, open_census
+from .claims import census_rows
+from .errors import ClaimError, QueryError
+from .safe_expr import Null, compile_expression
+
+__all__ = ["PolynomialFit", "ClassFit", "fit_polynomial", "fit_family", "add_arguments", "main"]
+
+MAX_REFITS = 2
+
+
+def _monomials(nvars: int, degree: int) -> list[tuple[int, ...]]:
+    """Exponent tuples of total degree <= ``degree``, by degree then lexicographically."""
+    out = []
+    for d in range(degree + 1):
+        level = []
+        for combo in combinations_with_replacement(range(nvars), d):
+            e = [0] * nvars
+            for i in combo:
+                e[i] += 1
+            level.append(tuple(e))
+        out += sorted(level, reverse=True)
+    return out
+
+
+def _mono_value(point: Sequence[int], exps: Sequence[int]) -> int:
+    v = 1
+    for x, e in zip(point, exps):
+        if e:
+            v *= x ** e
+    return v
+
+
+def _evaluate(coeffs: dict, point: Sequence[int]) -> Fraction:
+    return sum((c * _mono_value(point, e) for e, c in coeffs.items()), Fraction(0))
+
+
+@dataclass
+class PolynomialFit:
+    """An exact polynomial in the parameters and how it fares on the data."""
+
+    names: tuple
+    coeffs: dict            # exponent tuple -> Fraction
+    degree: int
+    unknowns: int           # size of the solved system
+    points: int             # distinct parameter points
+    failing: list           # row indices (into the fitted rows) where it fails
+    separated: bool = True  # False if the data did not separate all monomials of the degree
+
+    def expr(self):
+        """The polynomial as a sympy expression."""
+        import sympy
+        syms = sympy.symbols(self.names) if self.names else ()
+        if len(self.names) == 1:
+            syms = (syms if isinstance(syms, sympy.Symbol) else syms[0],)
+        total = sympy.Integer(0)
+        for e, c in self.coeffs.items():
+            term = sympy.Rational(c.numerator, c.denominator)
+            for s, k in zip(syms, e):
+                term *= s ** k
+            total += term
+        return sympy.expand(total)
+
+    @property
+    def exact(self) -> bool:
+        """True if it holds on every row and was checked beyond its defining points."""
+        return not self.failing and self.points > self.unknowns
+
+
+def _solve(points: list, values: list, monos: list) -> tuple[dict, int]:
+    """Exact solve on independent points/separated monomials: (coeffs, unknowns)."""
+    from sympy import QQ
+    from sympy.polys.matrices import DomainMatrix
+
+    rows = [[QQ(_mono_value(pt, e)) for e in monos] for pt in points]
+    a = DomainMatrix(rows, (len(points), len(monos)), QQ)
+    _, row_pivots = a.transpose().rref()            # independent data points
+    sub = a.extract(list(row_pivots), list(range(len(monos))))
+    _, col_pivots = sub.rref()                       # monomials the data separates
+    if not col_pivots:
+        return {}, 0
+    square = sub.extract(list(range(len(row_pivots))), list(col_pivots))
+    rhs = DomainMatrix([[QQ(values[i])] for i in row_pivots], (len(row_pivots), 1), QQ)
+    if len(row_pivots) != len(col_pivots):          # cannot happen for a rank-r selection
+        raise QueryError("fit: internal rank mismatch")
+    sol = square.lu_solve(rhs).to_Matrix()
+    coeffs = {}
+    for k, j in enumerate(col_pivots):
+        c = sol[k, 0]
+        if c != 0:
+            coeffs[monos[j]] = Fraction(int(c.p), int(c.q))
+    return coeffs, len(col_pivots)
+
+
+def _score(fit: PolynomialFit, n: int) -> int:
+    """Rows confirmed beyond the defining points: support minus unknowns (prefers simple fits)."""
+    return n - len(fit.failing) - fit.unknowns
+
+
+def fit_polynomial(points: Sequence[Sequence[int]], values: Sequence[int], names: Sequence[str], *,
+                   max_degree: int = 3, min_degree: int = 0) -> Optional[PolynomialFit]:
+    """The lowest-degree exact polynomial through every (point, value), else the best one.
+
+    Parameters
+    ----------
+    points : sequence of integer tuples
+        Parameter values of each row.
+    values : sequence of int
+        Target value of each row (exact integers).
+    names : sequence of str
+        Parameter names (used for printing).
+    max_degree, min_degree : int
+        Degrees tried, in increasing order.
+
+    Returns
+    -------
+    PolynomialFit or None
+        ``.exact`` is true when the polynomial holds on every row and is over-determined;
+        otherwise the candidate confirmed on the most rows beyond its defining points
+        (support minus unknowns), so a low-degree rule with a few exceptions beats a
+        high-degree interpolation.  None when there are no rows.
+    """
+    if not points:
+        return None
+    by_point: dict = defaultdict(list)
+    for i, pt in enumerate(points):
+        by_point[tuple(pt)].append(i)
+    best: Optional[PolynomialFit] = None
+    for degree in range(min_degree, max_degree + 1):
+        monos = _monomials(len(names), degree)
+        excluded: set = set()
+        for _ in range(MAX_REFITS + 1):
+            pts = [p for p in by_point if p not in excluded]
+            if not pts:
+                break
+            vals = [Counter(values[i] for i in by_point[p]).most_common(1)[0][0] for p in pts]
+            coeffs, unknowns = _solve(pts, vals, monos)
+            failing = [i for i, pt in enumerate(points) if _evaluate(coeffs, pt) != values[i]]
+            cand = PolynomialFit(tuple(names), coeffs, degree, unknowns, len(by_point), failing,
+                                 separated=unknowns == len(monos))
+            if best is None or _score(cand, len(points)) > _score(best, len(points)):
+                best = cand
+            if cand.exact:
+                return cand
+            if not failing or len(failing) * 2 > len(points):
+                break
+            excluded |= {tuple(points[i]) for i in failing}
+    return best
+
+
+@dataclass
+class ClassFit:
+    """The outcome for one parity class (or all rows)."""
+
+    label: str
+    rows: list                   # info dicts of the fitted rows
+    fit: Optional[PolynomialFit]
+    squared: bool = False        # the fit is for target**2
+    root: Any = None             # sympy Q with target = |Q|, when target**2 = Q**2
+    failing: list = field(default_factory=list)   # info dicts of rows where the formula fails
+
+    @property
+    def exact(self) -> bool:
+        return self.fit is not None and self.fit.points > self.fit.unknowns and not self.failing
+
+    def formula(self, target: str) -> str:
+        if self.fit is None:
+            return "no rows"
+        if self.root is not None:
+            return f"{target} = |{self.root}|"
+        lhs = f"{target}^2" if self.squared else target
+        return f"{lhs} = {self.fit.expr()}"
+
+
+def _square_root(fit: PolynomialFit):
+    """Q (sympy) with fit == Q**2 exactly, or None."""
+    import sympy
+    expr = fit.expr()
+    if expr == 0:
+        return sympy.Integer(0)
+    coeff, factors = sympy.factor_list(expr)
+    coeff = sympy.Rational(coeff)
+    if coeff < 0 or any(e % 2 for _, e in factors):
+        return None
+    num, den = int(coeff.p), int(coeff.q)
+    from math import isqrt
+    if isqrt(num) ** 2 != num or isqrt(den) ** 2 != den:
+        return None
+    q = sympy.Rational(isqrt(num), isqrt(den))
+    for f, e in factors:
+        q *= f ** (e // 2)
+    q = sympy.expand(q)
+    if q.could_extract_minus_sign():
+        q = sympy.expand(-q)
+    return q
+
+
+def _abs_root_failing(root, names: Sequence[str], points: list, values: list) -> list:
+    import sympy
+    syms = [sympy.Symbol(n) for n in names]
+    poly = sympy.Poly(root, *syms) if syms else None
+    terms = [(e, Fraction(int(c.p), int(c.q))) for e, c in poly.terms()] if poly is not None else []
+    return [i for i, pt in enumerate(points)
+            if abs(sum((c * _mono_value(pt, e) for e, c in terms), Fraction(0))) != values[i]]
+
+
+def _fit_class(label: str, names: list, infos: list, points: list, values: list, max_degree: int) -> ClassFit:
+    fit = fit_polynomial(points, values, names, max_degree=max_degree)
+    if fit is not None and fit.exact:
+        return ClassFit(label, infos, fit)
+    squares = [v * v for v in values]
+    sq = fit_polynomial(points, squares, names, max_degree=2 * max_degree)
+    if sq is not None and sq.exact:
+        root = _square_root(sq)
+        if root is not None:
+            failing = _abs_root_failing(root, names, points, values)
+            if not failing:
+                return ClassFit(label, infos, sq, squared=True, root=root)
+        return ClassFit(label, infos, sq, squared=True)
+    return ClassFit(label, infos, fit, failing=[infos[i] for i in (fit.failing if fit else [])])
+
+
+def fit_family(census: Census | str | Path, family: str, target: str, *, max_degree: int = 3,
+               by_parity: bool = False, where: Optional[str] = None) -> tuple[list[str], list[ClassFit], int]:
+    """Fit ``target`` over the integer parameters of ``family``.
+
+    Returns
+    -------
+    (names, classes, skipped)
+        Parameter names, one :class:`ClassFit` per parity class (one class "all rows"
+        without ``by_parity``), and the number of rows skipped (target null or a
+        non-integer parameter).
+
+    Raises
+    ------
+    ClaimError
+        For a bad target/where expression; QueryError if the family has no rows or no
+        integer parameters.
+    """
+    target_expr = compile_expression(target, what="--target")
+    where_expr = compile_expression(where, what="--where") if where else None
+    if not isinstance(census, Census):
+        census = open_census(census)
+    exprs = [target_expr] + ([where_expr] if where_expr else [])
+    rows = census_rows(census, exprs, family=family)
+    if not rows:
+        raise QueryError(f"fit: no rows of family {family!r}")
+    keysets = Counter(tuple(sorted(k for k, v in info["params"].items()
+                                   if isinstance(v, int) and not isinstance(v, bool))) for info, _ in rows)
+    names = list(max(keysets, key=lambda k: (keysets[k], k)))
+    if not names:
+        raise QueryError(f"fit: family {family!r} has no integer parameters")
+    classes: dict = defaultdict(lambda: ([], [], []))
+    skipped = 0
+    for info, env in rows:
+        if where_expr is not None:
+            try:
+                if where_expr.evaluate(env) is not True:
+                    continue
+            except Null:
+                continue
+        params = info["params"]
+        if not all(isinstance(params.get(n), int) and not isinstance(params.get(n), bool) for n in names):
+            skipped += 1
+            continue
+        try:
+            value = target_expr.evaluate(env)
+        except Null:
+            skipped += 1
+            continue
+        if isinstance(value, bool) or not isinstance(value, int):
+            raise ClaimError(f"--target must be an integer, got {value!r} on row {info['row_id']}")
+        point = tuple(params[n] for n in names)
+        key = tuple(x % 2 for x in point) if by_parity else ()
+        infos, points, values = classes[key]
+        infos.append(info)
+        points.append(point)
+        values.append(value)
+    out = []
+    for key in sorted(classes):
+        infos, points, values = classes[key]
+        label = ", ".join(f"{n} {'odd' if b else 'even'}" for n, b in zip(names, key)) if by_parity else "all rows"
+        out.append(_fit_class(label, names, infos, points, values, max_degree))
+    return names, out, skipped
+
+
+def format_fits(family: str, target: str, names: list, classes: list, skipped: int, *, limit: int = 10) -> str:
+    """The readable summary printed by ``knotledger fit``."""
+    n = sum(len(c.rows) for c in classes)
+    lines = [f"fit {target} for family {family}: parameters {', '.join(names)}; {n} rows"
+             + (f" ({skipped} skipped: null target or non-integer parameter)" if skipped else "")]
+    for c in classes:
+        f = c.fit
+        lines.append(f"[{c.label}] {len(c.rows)} rows")
+        if f is None:
+            lines.append("  no rows")
+            continue
+        kind = "exact" if c.exact else "best candidate (NOT exact)"
+        lines.append(f"  {kind}: {c.formula(target)}")
+        note = "" if f.separated else "; the data does not separate every monomial of this degree"
+        held = len(c.rows) - len(c.failing)
+        lines.append(f"  degree {f.degree}{' in ' + target + '^2' if c.squared else ''}; determined by "
+                     f"{f.unknowns} point{'s' if f.unknowns != 1 else ''}, support {held} of {len(c.rows)} rows ({f.points} distinct "
+                     f"parameter points){note}")
+        if f.points <= f.unknowns and not c.failing:
+            lines.append("  not verified: as many unknowns as distinct points (add rows or lower --max-degree)")
+        if c.failing:
+            lines.append(f"  failing rows: {len(c.failing)}")
+            for info in c.failing[:limit]:
+                lines.append(f"    row {info['row_id']} {info['notation']} params {info['params']}")
+        elif c.exact:
+            lines.append("  failing rows: none")
+    return "\n".join(lines) + "\n"
+
+
+def add_arguments(parser: argparse.ArgumentParser) -> None:
+    parser.add_argument("directory", metavar="DIR", help="census directory")
+    parser.add_argument("--family", required=True, metavar="KIND", help="family (spec kind) to fit")
+    parser.add_argument("--target", required=True, metavar="COLUMN",
+                        help="integer column (or safe expression) to express in the parameters")
+    parser.add_argument("--max-degree", type=int, default=3, metavar="D",
+                        help="largest total degree tried (default 3; squares up to 2D)")
+    parser.add_argument("--by-parity", action="store_true", help="fit each parity class of the parameters")
+    parser.add_argument("--where", metavar="EXPR", help="only rows where this expression is true")
+    parser.add_argument("--limit", type=int, default=10, metavar="N", help="failing rows to list (default 10)")
+
+
+def main(args: argparse.Namespace) -> int:
+    if not 0 <= args.max_degree <= 8:
+        raise QueryError(f"fit: --max-degree {args.max_degree} out of range (0..8)")
+    names, classes, skipped = fit_family(args.directory, args.family, args.target,
+                                         max_degree=args.max_degree, by_parity=args.by_parity,
+                                         where=args.where)
+    sys.stdout.write(format_fits(args.family, args.target, names, classes, skipped, limit=args.limit))
+    return 0 if all(c.exact for c in classes) else 1
