@@ -3,7 +3,7 @@
 ``knotledger draw DIAGRAM --out FILE.svg|FILE.png [--coloring P] [--no-labels]
 [--arrows] [--signs]``
 
-The layout is computed from the PD code alone (:mod:`pipeline.draw.layout`, Tutte's
+The layout is computed from the PD code alone (:mod:`pipeline.draw.geometry`, Tutte's
 barycentric embedding of the diagram's own rotation system), so every notation, link and
 split diagram is drawn the same way; :mod:`pipeline.draw.render` paints it with
 matplotlib.  Arc ``a k`` is column k of the colouring matrix (``diagram.arcs[k-1]``) and
@@ -15,7 +15,7 @@ from __future__ import annotations
 import argparse
 import sys
 
-from .layout import layout, stray_intersections
+from .geometry import layout, stray_intersections
 from .render import draw_diagram, residue_palette, witness_for_picture
 
 __all__ = ["draw_diagram", "layout", "stray_intersections", "residue_palette",

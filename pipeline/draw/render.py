@@ -1,4 +1,4 @@
-"""Render a diagram picture (SVG or PNG) from :func:`pipeline.draw.layout.layout`.
+"""Render a diagram picture (SVG or PNG) from :func:`pipeline.draw.geometry.layout`.
 
 Labels are the colouring-matrix labels of ``knotledger show``: arc ``a k`` is
 ``diagram.arcs[k-1]`` (column k), free loops are the columns after the arcs, and crossing
@@ -23,7 +23,7 @@ from typing import Optional
 
 from ..diagram import Diagram
 from ..errors import KnotLedgerError
-from .layout import layout as _layout
+from .geometry import layout as _layout
 
 __all__ = ["draw_diagram", "witness_for_picture", "residue_palette"]
 

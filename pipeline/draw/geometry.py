@@ -317,13 +317,15 @@ def layout(diagram: Diagram) -> dict:
                             "arc": arc_of[v] + 1, "component": comp_of[v]}
     # fall back to straight polylines where smoothing made edges meet off the crossings
     allowed = set(crossings)
-    for _ in range(3):
+    straightened: set[int] = set()
+    while True:
         bad = stray_intersections({v: e["points"] for v, e in edges.items()}, allowed)
-        if not bad:
+        todo = {v for pair in bad for v in pair} - straightened
+        if not todo:  # nothing left to straighten (straight Tutte edges never meet)
             break
-        for pair in bad:
-            for v in pair:
-                edges[v]["points"] = list(edges[v]["straight"])
+        for v in todo:
+            edges[v]["points"] = list(edges[v]["straight"])
+        straightened |= todo
     for v, e in edges.items():
         e["drawn"] = _cut_gaps(e, gaps)
         del e["straight"]
