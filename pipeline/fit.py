@@ -42,6 +42,8 @@ from .safe_expr import Null, compile_expression
 __all__ = ["PolynomialFit", "ClassFit", "fit_polynomial", "fit_family", "add_arguments", "main"]
 
 MAX_REFITS = 2
+#: Different bases tried per degree when the first one does not fit every row.
+ATTEMPTS = 8
 
 
 def _monomials(nvars: int, degree: int) -> list[tuple[int, ...]]:
@@ -133,7 +135,7 @@ def _score(fit: PolynomialFit, n: int) -> int:
 
 
 def fit_polynomial(points: Sequence[Sequence[int]], values: Sequence[int], names: Sequence[str], *,
-                   max_degree: int = 3, min_degree: int = 0) -> Optional[PolynomialFit]:
+                   max_degree: int = 3, min_degree: int = 0, robust: bool = True) -> Optional[PolynomialFit]:
     """The lowest-degree exact polynomial through every (point, value), else the best one.
 
     Parameters
@@ -146,6 +148,9 @@ def fit_polynomial(points: Sequence[Sequence[int]], values: Sequence[int], names
         Parameter names (used for printing).
     max_degree, min_degree : int
         Degrees tried, in increasing order.
+    robust : bool
+        When a degree does not fit every row, also try other interpolation bases and
+        refits without the failing points (slower; only needed for a best candidate).
 
     Returns
     -------
@@ -161,25 +166,48 @@ def fit_polynomial(points: Sequence[Sequence[int]], values: Sequence[int], names
     for i, pt in enumerate(points):
         by_point[tuple(pt)].append(i)
     best: Optional[PolynomialFit] = None
+    all_points = list(by_point)
+    n = len(points)
+
+    def attempt(pts: list, degree: int, monos: list) -> PolynomialFit:
+        vals = [Counter(values[i] for i in by_point[p]).most_common(1)[0][0] for p in pts]
+        coeffs, unknowns = _solve(pts, vals, monos)
+        failing = [i for i, pt in enumerate(points) if _evaluate(coeffs, pt) != values[i]]
+        return PolynomialFit(tuple(names), coeffs, degree, unknowns, len(by_point), failing,
+                             separated=unknowns == len(monos))
+
     for degree in range(min_degree, max_degree + 1):
         monos = _monomials(len(names), degree)
-        excluded: set = set()
-        for _ in range(MAX_REFITS + 1):
-            pts = [p for p in by_point if p not in excluded]
-            if not pts:
+        # The exact solve interpolates the first independent points of the order given;
+        # rotating the order gives other bases (a deterministic consensus search).
+        local: Optional[PolynomialFit] = None
+        for k in range(ATTEMPTS if robust else 1):
+            shift = (k * len(all_points)) // ATTEMPTS
+            if k and shift == 0:
                 break
-            vals = [Counter(values[i] for i in by_point[p]).most_common(1)[0][0] for p in pts]
-            coeffs, unknowns = _solve(pts, vals, monos)
-            failing = [i for i, pt in enumerate(points) if _evaluate(coeffs, pt) != values[i]]
-            cand = PolynomialFit(tuple(names), coeffs, degree, unknowns, len(by_point), failing,
-                                 separated=unknowns == len(monos))
-            if best is None or _score(cand, len(points)) > _score(best, len(points)):
-                best = cand
+            cand = attempt(all_points[shift:] + all_points[:shift], degree, monos)
             if cand.exact:
                 return cand
-            if not failing or len(failing) * 2 > len(points):
+            if local is None or _score(cand, n) > _score(local, n):
+                local = cand
+            if not cand.failing:
                 break
-            excluded |= {tuple(points[i]) for i in failing}
+        excluded: set = set()
+        for _ in range(MAX_REFITS if robust else 0):
+            if local is None or not local.failing or len(local.failing) * 2 > n:
+                break
+            excluded |= {tuple(points[i]) for i in local.failing}
+            pts = [p for p in all_points if p not in excluded]
+            if not pts:
+                break
+            cand = attempt(pts, degree, monos)
+            if cand.exact:
+                return cand
+            if _score(cand, n) <= _score(local, n):
+                break
+            local = cand
+        if local is not None and (best is None or _score(local, n) > _score(best, n)):
+            best = local
     return best
 
 
@@ -240,11 +268,11 @@ def _abs_root_failing(root, names: Sequence[str], points: list, values: list) ->
 
 
 def _fit_class(label: str, names: list, infos: list, points: list, values: list, max_degree: int) -> ClassFit:
-    fit = fit_polynomial(points, values, names, max_degree=max_degree)
+    fit = fit_polynomial(points, values, names, max_degree=max_degree, robust=False)
     if fit is not None and fit.exact:
         return ClassFit(label, infos, fit)
     squares = [v * v for v in values]
-    sq = fit_polynomial(points, squares, names, max_degree=2 * max_degree)
+    sq = fit_polynomial(points, squares, names, max_degree=2 * max_degree, robust=False)
     if sq is not None and sq.exact:
         root = _square_root(sq)
         if root is not None:
@@ -252,6 +280,7 @@ def _fit_class(label: str, names: list, infos: list, points: list, values: list,
             if not failing:
                 return ClassFit(label, infos, sq, squared=True, root=root)
         return ClassFit(label, infos, sq, squared=True)
+    fit = fit_polynomial(points, values, names, max_degree=max_degree, robust=True)
     return ClassFit(label, infos, fit, failing=[infos[i] for i in (fit.failing if fit else [])])
 
 
