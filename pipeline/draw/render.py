@@ -205,9 +205,10 @@ def draw_diagram(diagram: Diagram, path, *, coloring: Optional[int] = None, labe
                 if arrows:
                     k, p = _point_along(pts, 0.3)
                     d = _unit_vec(pts[k], pts[k + 1])
-                    eps = 0.02 * max(w, h)
+                    eps = 0.004 * max(w, h)  # a very short shaft: only the head shows
                     ax.add_patch(FancyArrowPatch((p[0] - eps * d[0], p[1] - eps * d[1]), (p[0] + eps * d[0], p[1] + eps * d[1]),
-                                                 arrowstyle="-|>", mutation_scale=20, fc=_INK, ec="white", lw=0.8, zorder=4))
+                                                 arrowstyle="-|>", mutation_scale=18, fc=_INK, ec=_INK, lw=0.6,
+                                                 shrinkA=0, shrinkB=0, zorder=4))
                 if labels or colours is not None:
                     _, p = _point_along(pts, 0.5)
                     text = f"a{col}" if labels else ""
