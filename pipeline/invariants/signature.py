@@ -99,10 +99,13 @@ def symmetric_inertia(matrix: dict[int, dict[int, int]] | list[list[int]]) -> tu
 
     Notes
     -----
-    Symmetric elimination over Q: a nonzero diagonal pivot p adds sign(p) and
-    replaces the rest by its Schur complement; when every remaining diagonal entry
-    is zero but a_ij ≠ 0, the block [[0, a_ij], [a_ij, 0]] has inertia (1, 1) and
-    determinant −a_ij².  Pivots are chosen to keep the fill small (sparse rows).
+    Symmetric elimination over Q (congruence, Sylvester's law of inertia): take the
+    sparsest remaining row i.  If it is empty it is a zero eigenvalue.  If a_ii ≠ 0
+    the pivot adds sign(a_ii) and the rest is replaced by its Schur complement.  If
+    a_ii = 0, take the sparsest neighbour j: the block [[0, a_ij], [a_ij, a_jj]] has
+    determinant −a_ij² < 0, hence inertia (1, 1), and the rest is replaced by the
+    Schur complement of the block.  Choosing the sparsest row keeps the fill small
+    (Goeritz matrices of the family diagrams stay banded).
 
     Examples
     --------
@@ -113,68 +116,64 @@ def symmetric_inertia(matrix: dict[int, dict[int, int]] | list[list[int]]) -> tu
         rows = {i: {j: fmpq(v) for j, v in enumerate(r) if v} for i, r in enumerate(matrix)}
     else:
         rows = {i: {j: fmpq(v) for j, v in r.items() if v} for i, r in matrix.items()}
-    pos = neg = 0
+    pos = neg = zero = 0
     det = fmpq(1)
-    alive = set(rows)
-    while alive:
-        best = None
-        for i in alive:
-            r = rows[i]
-            if i in r and (best is None or len(r) < len(rows[best]) or
-                           (len(r) == len(rows[best]) and i < best)):
-                best = i
-        if best is not None:
-            p = rows[best].pop(best)
+    while rows:
+        i = min(rows, key=lambda k: (len(rows[k]), k))  # least fill first
+        ri = rows[i]
+        if not ri:  # a zero row and column: one zero eigenvalue
+            zero += 1
+            det = fmpq(0)
+            del rows[i]
+            continue
+        if i in ri:  # 1x1 pivot p = a_ii
+            p = ri.pop(i)
             pos, neg = (pos + 1, neg) if p > 0 else (pos, neg + 1)
             det *= p
-            nb = rows.pop(best)
-            alive.discard(best)
-            for j in nb:
-                rows[j].pop(best, None)
-            items = list(nb.items())
+            del rows[i]
+            items = list(ri.items())
+            for j, _ in items:
+                rows[j].pop(i, None)
             for j, vj in items:
-                rj = rows[j]
-                f = vj / p
+                rj, f = rows[j], vj / p
                 for k, vk in items:
-                    nv = rj.get(k, 0) - f * vk
-                    if nv:
-                        rj[k] = nv
-                    else:
-                        rj.pop(k, None)
+                    _add(rj, k, -f * vk)
             continue
-        # all diagonal entries are zero: 2x2 pivot on a nonzero off-diagonal entry
-        i = next((i for i in sorted(alive) if rows[i]), None)
-        if i is None:
-            return pos, neg, len(alive), 0
-        j = min(rows[i])
-        b = rows[i][j]
+        # a_ii = 0: 2x2 pivot B = [[0, b], [b, c]] with the sparsest neighbour j;
+        # det B = -b^2 < 0, so B has inertia (1, 1)
+        j = min(ri, key=lambda k: (len(rows[k]), k))
+        rj = rows[j]
+        b, c = ri.pop(j), rj.pop(j, fmpq(0))
+        rj.pop(i, None)
         pos, neg = pos + 1, neg + 1
         det *= -b * b
-        ri, rj = rows.pop(i), rows.pop(j)
-        alive.discard(i)
-        alive.discard(j)
-        ri.pop(j, None)
-        rj.pop(i, None)
-        for k in set(ri) | set(rj):
-            rows[k].pop(i, None)
-            rows[k].pop(j, None)
-        # Schur complement: a_kl -= (a_ki a_jl + a_kj a_il) / b
+        del rows[i], rows[j]
         keys = sorted(set(ri) | set(rj))
         for k in keys:
-            rk = rows[k]
-            aki, akj = ri.get(k, 0), rj.get(k, 0)
+            rows[k].pop(i, None)
+            rows[k].pop(j, None)
+        # Schur complement: a_kl += (c u_k u_l - b (u_k v_l + v_k u_l)) / b^2
+        b2 = b * b
+        for k in keys:
+            rk, uk, vk = rows[k], ri.get(k, 0), rj.get(k, 0)
             for l in keys:
-                ali, alj = ri.get(l, 0), rj.get(l, 0)
-                delta = (aki * alj + akj * ali) / b
-                if delta:
-                    nv = rk.get(l, 0) - delta
-                    if nv:
-                        rk[l] = nv
-                    else:
-                        rk.pop(l, None)
+                ul, vl = ri.get(l, 0), rj.get(l, 0)
+                _add(rk, l, (c * uk * ul - b * (uk * vl + vk * ul)) / b2)
+    if zero:
+        return pos, neg, zero, 0
     if det.q != 1:  # pragma: no cover - an integer matrix has an integer determinant
         raise ArithmeticError("non-integral determinant")
     return pos, neg, 0, int(det.p)
+
+
+def _add(row: dict, k: int, delta) -> None:
+    """row[k] += delta, keeping the row sparse."""
+    if delta:
+        nv = row.get(k, 0) + delta
+        if nv:
+            row[k] = nv
+        else:
+            row.pop(k, None)
 
 
 # ---------------------------------------------------------------- Goeritz data
