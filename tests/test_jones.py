@@ -16,9 +16,11 @@ import sympy
 from hypothesis import HealthCheck, assume, example, given, settings
 from hypothesis import strategies as st
 
-from pipeline.errors import BudgetExceeded
+from pipeline.errors import BudgetExceeded, NotationError
 from pipeline.families import braid
-from pipeline.invariants.jones import crossing_order, jones_polynomial, kauffman_bracket
+from pipeline.families.two_bridge import continued_fraction
+from pipeline.invariants.bracket_fast import montesinos_bracket, rational_tangle_bracket, two_bridge_bracket
+from pipeline.invariants.jones import crossing_order, jones_from_bracket, jones_polynomial, kauffman_bracket
 from pipeline.notation import parse
 from pipeline.poly import Laurent
 
@@ -328,6 +330,45 @@ def test_random_tangle_diagrams_match_all_states_sum(text):
     assume(d.n_crossings <= 12)
     assert kauffman_bracket(d) == slow_state_sum(d)
     assert jones_polynomial(d) == slow_jones(d)
+
+
+# ----------------------------------------------------------------- fast tangle route
+@settings(max_examples=40, deadline=None)
+@given(st.lists(st.integers(-5, 5).filter(bool), min_size=1, max_size=8))
+@example([3])
+@example([-1, 1])
+def test_two_bridge_fast_route_matches_frontier_programme(terms):
+    d = parse("conway:" + " ".join(map(str, terms)))
+    assert two_bridge_bracket(terms) == kauffman_bracket(d)
+    assert jones_from_bracket(two_bridge_bracket(terms), d.writhe) == jones_polynomial(d)
+
+
+@settings(max_examples=40, deadline=None)
+@given(st.lists(st.one_of(st.none(), st.tuples(st.integers(-9, 9), st.integers(1, 7))), min_size=1, max_size=5))
+@example([None, None])
+def test_montesinos_fast_route_matches_frontier_programme(raw):
+    fracs = [None if r is None else Fraction(r[0], r[1]) for r in raw]
+    text = "montesinos:" + ",".join("1/0" if f is None else f"{f.numerator}/{f.denominator}" for f in fracs)
+    try:
+        d = parse(text)
+    except NotationError:  # 1/0 is not accepted by the notation; build via the pretzel form instead
+        assume(all(f is None or f.numerator == 1 for f in fracs))
+        d = parse("pretzel:" + ",".join("0" if f is None else str(f.denominator) for f in fracs))
+    assert montesinos_bracket(fracs) == kauffman_bracket(d)
+
+
+def test_fast_routes_on_large_members():
+    terms = continued_fraction(1000003, 271829)
+    assert two_bridge_bracket(terms) == kauffman_bracket(parse("rational:1000003/271829"))
+    assert montesinos_bracket([Fraction(1, 25)] * 4) == kauffman_bracket(parse("pretzel:25,25,25,25"))
+    # a single crossing: <[1]> = A<[0]> + A^-1<[∞]> in the builder's picture (Kauffman 1987)
+    f, g = rational_tangle_bracket([1])
+    assert (f, g) == (Laurent({2: 1}), Laurent({-2: 1}))
+
+
+def test_jones_from_bracket_refuses_a_wrong_writhe():
+    with pytest.raises(ArithmeticError):
+        jones_from_bracket(kauffman_bracket(parse("torus:2,3")), 2)
 
 
 def test_crossing_order_is_a_permutation():

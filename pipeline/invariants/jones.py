@@ -50,7 +50,7 @@ from ..diagram import Diagram
 from ..errors import BudgetExceeded
 from ..poly import Laurent
 
-__all__ = ["kauffman_bracket", "jones_polynomial", "crossing_order", "frontier_width"]
+__all__ = ["kauffman_bracket", "jones_polynomial", "jones_from_bracket", "crossing_order", "frontier_width"]
 
 _ONE = flint.fmpz_poly([1])
 #: δ = −A² − A⁻² = A⁻² · (−1 − A⁴): stored as offset −2 and −1 − A⁴.
@@ -369,15 +369,26 @@ def jones_polynomial(diagram: Diagram, *, budget: Optional[int] = None) -> Laure
     2. V. F. R. Jones, "A polynomial invariant for knots via von Neumann algebras",
        Bull. AMS 12 (1985).
     """
-    off, poly = _bracket_pair(diagram, budget)
-    w = diagram.writhe
-    sign = -1 if w % 2 else 1
+    return jones_from_bracket(kauffman_bracket(diagram, budget=budget), diagram.writhe)
+
+
+def jones_from_bracket(bracket: Laurent, writhe: int) -> Laurent:
+    """``V = (−A³)^(−w) <D>`` at ``A = t^(−1/4)``, from a bracket in A (doubled exponents).
+
+    Lets a fast bracket route (:mod:`pipeline.invariants.bracket_fast`) reuse the
+    normalisation of :func:`jones_polynomial`.
+
+    Raises
+    ------
+    ArithmeticError
+        When an exponent of A does not become a half-integer power of t (the
+        bracket does not belong to a diagram with this writhe).
+    """
+    sign = -1 if writhe % 2 else 1
     terms = {}
-    for j, c in enumerate(poly.coeffs()):
-        if not c:
-            continue
-        e = off + j - 3 * w  # exponent of A; A^e = t^(-e/4)
-        if e % 2:
-            raise ArithmeticError(f"jones: odd A-exponent {e} after writhe normalisation")
-        terms[-e // 2] = sign * int(c)
+    for k2, c in bracket.terms:
+        e = k2 // 2 - 3 * writhe  # exponent of A; A^e = t^(-e/4)
+        if k2 % 2 or e % 2:
+            raise ArithmeticError(f"jones: A-exponent {k2 / 2} with writhe {writhe} is not a power of t^(1/2)")
+        terms[-e // 2] = sign * c
     return Laurent(terms)
