@@ -206,6 +206,15 @@ def test_mirror_negates_signature(notation):
     assert nullity(d.mirror()) == nullity(d)
 
 
+def test_crossingless_unlink():
+    # unlink of k components: σ = 0, nullity k − 1 (common practice)
+    from pipeline.diagram import Diagram
+    for k in (1, 2, 3):
+        d = Diagram.from_pd([], free_loops=k)
+        assert (signature(d), nullity(d)) == (0, k - 1)
+        assert goeritz_matrix(d) == [[0] * (k - 1) for _ in range(k - 1)]
+
+
 def test_signature_does_not_depend_on_labels():
     d = parse("pretzel:3,-5,7")
     assert signature(d.relabel()) == signature(d)

@@ -154,7 +154,7 @@ def _link_verdict(diagram: Diagram, v: Optional[Laurent], s: Optional[int]) -> t
         return "unknown", "jones and signature not computed"
     vals = orientation_values(diagram, jones=use_jones, signature=use_sig)
     mirrored = _mirror_values(vals)
-    n = len(vals)
+    n = 2 ** max(len(diagram.components) - 1, 0)
     if use_jones and {x for x, _ in vals} != {x for x, _ in mirrored}:
         return "chiral (jones)", f"Jones polynomials over {n} orientations differ from the mirror's"
     if use_sig and {y for _, y in vals} != {y for _, y in mirrored}:

@@ -39,9 +39,10 @@ determinant of the link [3]_, one more certificate for the colouring invariants.
 
 Exactness: the signature of the integer symmetric matrix G is found by symmetric
 Gaussian elimination (a congruence G = L D Lᵀ, Sylvester's law of inertia) over the
-rationals with python-flint ``fmpq`` entries, choosing pivots of least fill and a
-2×2 pivot [[0, b], [b, 0]] (one positive, one negative eigenvalue) when every
-remaining diagonal entry is zero.  No floating point anywhere.
+rationals with python-flint ``fmpq`` entries, always pivoting on the sparsest
+remaining row; when its diagonal entry is zero a 2×2 pivot [[0, b], [b, c]] with a
+neighbour (determinant −b² < 0: one positive, one negative eigenvalue) is used.
+No floating point anywhere.
 
 References
 ----------
