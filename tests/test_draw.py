@@ -17,6 +17,7 @@ import xml.etree.ElementTree as ET
 
 import numpy as np
 import pytest
+from hypothesis import given, settings, strategies as st
 
 from pipeline import parse
 from pipeline.cli import main as cli_main
@@ -386,3 +387,26 @@ def test_smoothing_that_goes_astray_falls_back_to_the_straight_embedding(monkeyp
     for i in range(d.n_crossings):
         ang = [math.atan2(*reversed(_leaving_direction(geo, i, s))) for s in range(4)]
         assert math.isclose(sum((ang[(s + 1) % 4] - ang[s]) % (2 * math.pi) for s in range(4)), 2 * math.pi)
+
+
+def test_only_free_loops_are_drawn_as_labelled_circles(tmp_path):
+    d = parse("pd:[] loops=2")
+    geo = layout(d)
+    assert [lp["column"] for lp in geo["loops"]] == [1, 2] and geo["edges"] == {}
+    out = tmp_path / "o.svg"
+    draw_diagram(d, out, coloring=2)  # loops colour independently: a nontrivial 2-colouring
+    res = dict(re.fullmatch(r"a(\d)=(\d)", t).groups() for t in _svg_texts(out) if t.startswith("a"))
+    assert set(res) == {"1", "2"} and set(res.values()) == {"0", "1"}
+
+
+@settings(max_examples=25, deadline=None)
+@given(st.lists(st.integers(-4, 4).filter(bool), min_size=1, max_size=12))
+def test_random_braid_closures_are_drawn_faithfully(word):
+    d = parse("braid:" + ",".join(map(str, word)))
+    geo = layout(d)
+    assert _proper_crossings({v: e["points"] for v, e in geo["edges"].items()}) == []
+    for i in range(d.n_crossings):
+        ang = [math.atan2(*reversed(_leaving_direction(geo, i, s))) for s in range(4)]
+        assert math.isclose(sum((ang[(s + 1) % 4] - ang[s]) % (2 * math.pi) for s in range(4)), 2 * math.pi)
+        assert _touching_labels(geo, i) == set(d.over_labels(i))
+    assert len(geo["loops"]) == d.free_loops

@@ -281,6 +281,13 @@ def layout(diagram: Diagram) -> dict:
         (``column`` is the 1-based colouring-matrix column, after the arcs).
         ``bounds``: (xmin, ymin, xmax, ymax).
 
+    Examples
+    --------
+    >>> from pipeline import parse
+    >>> geo = layout(parse("torus:2,3"))
+    >>> len(geo["crossings"]), sorted(e["arc"] for e in geo["edges"].values())
+    (3, [1, 1, 2, 2, 3, 3])
+
     Notes
     -----
     Tutte's barycentric embedding (Tutte 1963) of the twice-subdivided diagram graph with a

@@ -141,6 +141,11 @@ def draw_diagram(diagram: Diagram, path, *, coloring: Optional[int] = None, labe
     ------
     KnotLedgerError
         Unknown suffix, or no nontrivial colouring modulo ``coloring``.
+
+    Examples
+    --------
+    >>> from pipeline import parse
+    >>> draw_diagram(parse("torus:2,3"), "trefoil.svg", coloring=3)  # doctest: +SKIP
     """
     path = Path(path)
     suffix = path.suffix.lower()
