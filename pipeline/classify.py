@@ -1,0 +1,418 @@
+"""Deduplication with proofs: knot keys, fingerprints, the knots table.
+
+A census row gets a **knot key** naming its unoriented link type:
+
+* from a **normal form** when its notation (or family parameters) is a torus,
+  two-bridge, conway, pretzel or Montesinos presentation, or a braid word of the
+  torus form (σ1⋯σ_{p−1})^q — see :mod:`pipeline.normal_forms` for the theorems; the
+  key then comes with ``proof = 'normal form'``, its mirror's key and a chirality
+  verdict from the same theorem;
+* otherwise from a **fingerprint** of its invariants (``proof = 'fingerprint only'``).
+
+Fingerprints
+------------
+Knots: determinant, invariant factors, Alexander, Jones and signature (the Jones
+polynomial and the signature distinguish a knot from its mirror; the mirror
+fingerprint uses V(1/t) and −σ).  Links: only orientation-free data — determinant,
+invariant factors, number of components, and, when the diagram is at hand, the *set*
+of Jones polynomials over all orientations of the components, obtained from one of
+them by Morton's reversal formula V(L') = t^{−3λ} V(L), λ = lk(K, L − K) for the
+reversed sublink K [1].  Rows whose fingerprints differ are proven distinct (when
+both fingerprints are complete, prefix ``fp:``; a row missing an invariant gets the
+prefix ``fp-partial:`` and proves nothing against others).  Equal fingerprints prove
+nothing: mutants such as P(2,3,3,5) and P(2,3,5,3) share every invariant here and are
+told apart only by Bonahon–Siebenmann.  A fingerprint key names a class of rows,
+possibly containing a knot and its mirror when their invariants agree; its mirror
+key is the fingerprint of the mirrored invariants, and amphichirality stays unknown
+unless an invariant proves chirality.
+
+The knots table (:func:`build_knots_table`) refuses to merge rows whose
+orientation-free invariants differ (for knots: any invariant); that would be a bug
+in a normal form or an invariant, and it raises :class:`KeyConflictError`.
+
+References
+----------
+1. H. R. Morton, "The Jones polynomial for unoriented links", Quart. J. Math. Oxford
+   37 (1986).
+2. L. Kauffman, K. Murasugi, M. Thistlethwaite, Topology 26 (1987): a connected
+   reduced alternating diagram has the minimal crossing number.
+"""
+
+from __future__ import annotations
+
+import hashlib
+import json
+import re
+from fractions import Fraction
+from itertools import combinations
+from typing import Any, Optional
+
+from .canonical import canonical_text, diagram_id
+from .diagram import Diagram
+from .errors import KnotLedgerError
+from .normal_forms import (CN_ALT, NormalForm, montesinos_nf, pretzel_nf, torus_nf, two_bridge_nf)
+from .poly import Laurent
+
+__all__ = ["canonical_text", "diagram_id", "knot_key", "fingerprint", "build_knots_table",
+           "mark_duplicates", "normal_form", "is_reduced", "jones_orientation_set", "KeyConflictError"]
+
+MAX_ORIENTATION_COMPONENTS = 10
+
+
+class KeyConflictError(KnotLedgerError):
+    """Two rows under one knot key have different invariants (a bug somewhere)."""
+
+
+# ---------------------------------------------------------------------- normal forms
+def _ints(text: str) -> list[int]:
+    return [int(t) for t in re.split(r"[,\s]+", text.strip()) if t]
+
+
+def normal_form(row: dict) -> Optional[NormalForm]:
+    """The normal form of a row from its notation (or family parameters); None if none applies."""
+    from .notation import split_notation
+    from .families.two_bridge import fraction_of
+    notation = row.get("notation")
+    try:
+        if notation:
+            kind, args = split_notation(notation)
+        else:
+            kind, args = _from_params(row)
+        if kind == "torus":
+            p, q = _ints(args)
+            return torus_nf(p, q)
+        if kind == "rational":
+            a, b = args.split("/")
+            return two_bridge_nf(int(a), int(b))
+        if kind == "conway":
+            f = fraction_of(_ints(args))
+            return None if f is None else two_bridge_nf(f.numerator, f.denominator)
+        if kind == "pretzel":
+            return pretzel_nf(_ints(args))
+        if kind == "montesinos":
+            return montesinos_nf([Fraction(t.strip().replace(" ", "")) for t in args.split(",")])
+        if kind == "braid":
+            return _torus_braid(_ints(args))
+    except (ValueError, ZeroDivisionError, KnotLedgerError):
+        return None
+    return None
+
+
+def _from_params(row: dict) -> tuple[str, str]:
+    params = row.get("params") or {}
+    if isinstance(params, str):
+        params = json.loads(params)
+    fam = row.get("family")
+    if fam == "torus":
+        return "torus", f"{params['p']},{params['q']}"
+    if fam == "two_bridge":
+        return "rational", f"{params['alpha']}/{params['beta']}"
+    if fam == "pretzel":
+        k = len([n for n in params if re.fullmatch(r"p\d+", n)])
+        return "pretzel", ",".join(str(params[f"p{i}"]) for i in range(1, k + 1))
+    if fam == "montesinos":
+        k = len([n for n in params if re.fullmatch(r"t\d+", n)])
+        return "montesinos", ",".join(str(params[f"t{i}"]) for i in range(1, k + 1))
+    return "", ""
+
+
+def _torus_braid(word: list[int]) -> Optional[NormalForm]:
+    """(σ1⋯σ_{p−1})^q with one sign is T(p, ±q) (DESIGN.md, torus notation)."""
+    if not word:
+        return None
+    n1 = max(abs(g) for g in word)
+    s = 1 if word[0] > 0 else -1
+    block = [s * i for i in range(1, n1 + 1)]
+    if len(word) % n1 or word != block * (len(word) // n1):
+        return None
+    return torus_nf(n1 + 1, s * len(word) // n1)
+
+
+# ---------------------------------------------------------------------- fingerprints
+def _poly(v: Any) -> Optional[list]:
+    """A polynomial in DESIGN.md JSON form, from a Laurent, a JSON list or JSON text."""
+    if v is None:
+        return None
+    if isinstance(v, Laurent):
+        return v.to_json()
+    if isinstance(v, str):
+        v = json.loads(v)
+    return Laurent.from_json(v).to_json()
+
+
+def _factors(v: Any) -> Optional[list[int]]:
+    if v is None:
+        return None
+    if isinstance(v, str):
+        v = json.loads(v)
+    return [int(x) for x in v]
+
+
+def _invert(p: Optional[list]) -> Optional[list]:
+    return None if p is None else Laurent.from_json(p).invert().to_json()
+
+
+def jones_orientation_set(diagram: Diagram, jones: Laurent) -> Optional[list[list]]:
+    """Jones polynomials of ``diagram`` over all orientations of its components (sorted JSON).
+
+    Morton's formula: reversing the sublink K multiplies V by t^{−3 lk(K, L−K)}.
+    None when the diagram has more than ``MAX_ORIENTATION_COMPONENTS`` components.
+    """
+    comps = diagram.components
+    c = len(comps)
+    if c > MAX_ORIENTATION_COMPONENTS:
+        return None
+    comp_of = diagram.component_of_label
+    lk2 = [[0] * c for _ in range(c)]     # 2·lk
+    for i, (a, b, _, d) in enumerate(diagram.pd):
+        x, y = comp_of[a], comp_of[b]
+        if x != y:
+            lk2[x][y] += diagram.signs[i]
+            lk2[y][x] += diagram.signs[i]
+    out = set()
+    for r in range(c + 1):
+        for sub in combinations(range(c), r):
+            rest = [j for j in range(c) if j not in sub]
+            lam = sum(lk2[i][j] for i in sub for j in rest) // 2
+            out.add(json.dumps(jones.shift(-6 * lam).to_json()))
+    return sorted(json.loads(s) for s in out)
+
+
+def _fingerprint_data(row: dict, *, mirror: bool = False) -> tuple[dict, bool]:
+    """(data, complete) of the fingerprint."""
+    comps = row.get("components")
+    data: dict[str, Any] = {"components": comps, "determinant": row.get("determinant"),
+                            "invariant_factors": _factors(row.get("invariant_factors"))}
+    if data["determinant"] is not None:
+        data["determinant"] = int(data["determinant"])
+    if comps == 1:
+        jones = _poly(row.get("jones"))
+        sig = row.get("signature")
+        data["alexander"] = _poly(row.get("alexander"))
+        data["jones"] = _invert(jones) if mirror else jones
+        data["signature"] = None if sig is None else (-int(sig) if mirror else int(sig))
+    else:
+        js = row.get("jones_orientations")
+        d, jones = row.get("diagram"), row.get("jones")
+        if js is None and isinstance(d, Diagram) and jones is not None:
+            js = jones_orientation_set(d, jones if isinstance(jones, Laurent) else Laurent.from_json(_poly(jones)))
+        if js is not None and mirror:
+            js = sorted(_invert(p) for p in js)
+        data["jones_orientations"] = js
+    return data, all(v is not None for v in data.values())
+
+
+def _hash(data: dict, complete: bool) -> str:
+    h = hashlib.sha256(json.dumps(data, sort_keys=True, separators=(",", ":")).encode()).hexdigest()
+    return ("fp:" if complete else "fp-partial:") + h[:24]
+
+
+def fingerprint(row: dict) -> str:
+    """Fingerprint key of a row from its invariants (see the module docstring).
+
+    Example: two diagrams of the figure-eight knot (conway:2 2 and its mirror) get the
+    same fingerprint; the trefoil and its mirror get different ones.
+    """
+    return _hash(*_fingerprint_data(row))
+
+
+def _mirror_fingerprint(row: dict) -> str:
+    return _hash(*_fingerprint_data(row, mirror=True))
+
+
+# ---------------------------------------------------------------------- crossing numbers
+def is_reduced(diagram: Diagram) -> bool:
+    """True when no crossing is nugatory: the four corners of every crossing lie in
+    four different faces."""
+    seen: dict[int, set] = {}
+    for f, cyc in enumerate(diagram.faces):
+        for (i, _) in cyc:
+            s = seen.setdefault(i, set())
+            if f in s:
+                return False
+            s.add(f)
+    return True
+
+
+def _alternating_cn(row: dict) -> Optional[int]:
+    """Crossing count of a connected reduced alternating diagram, else None."""
+    d = row.get("diagram")
+    alt, red, connected = row.get("alternating"), row.get("reduced"), row.get("connected")
+    if isinstance(d, Diagram):
+        if d.n_crossings == 0:
+            return None
+        alt = d.is_alternating() if alt is None else alt
+        red = is_reduced(d) if red is None else red
+        connected = (len(d.pieces) == 1 and d.free_loops == 0) if connected is None else connected
+    if alt and red and connected:
+        if row.get("crossings") is not None:
+            return int(row["crossings"])
+        return d.n_crossings if isinstance(d, Diagram) else None
+    return None
+
+
+# ---------------------------------------------------------------------- keys
+def knot_key(row: dict) -> dict:
+    """Knot key of one diagram row.
+
+    Parameters
+    ----------
+    row : dict
+        ``notation`` (and/or ``family`` + ``params``), ``components``, the invariants
+        (``determinant``, ``invariant_factors``, ``alexander``, ``jones``,
+        ``signature``; Laurent, JSON list or JSON text; None if missing) and optionally
+        ``diagram`` (a :class:`Diagram`, for link fingerprints and crossing numbers).
+
+    Returns
+    -------
+    dict
+        ``knot_key``, ``mirror_key``, ``proof`` (``normal form`` / ``fingerprint only``),
+        ``amphichiral`` (True / False / None), ``amphichiral_reason``, ``crossing_number``
+        (certified or None), ``crossing_number_source``, ``fingerprint``; and, when a
+        normal form decides, ``chirality`` / ``chirality_reason`` in the DESIGN.md
+        vocabulary (``amphichiral (normal form)`` / ``chiral (normal form)``).
+
+    Examples
+    --------
+    >>> knot_key({"notation": "rational:3/1", "components": 1})["knot_key"]
+    'torus:2,3'
+    """
+    nf = normal_form(row)
+    alt_cn = _alternating_cn(row)
+    fp = fingerprint(row)
+    if nf is not None:
+        out = {"knot_key": nf.key, "mirror_key": nf.mirror_key, "proof": "normal form",
+               "amphichiral": nf.amphichiral, "amphichiral_reason": nf.amphichiral_reason,
+               "crossing_number": nf.crossing_number, "crossing_number_source": nf.crossing_number_source,
+               "fingerprint": fp,
+               "chirality": "amphichiral (normal form)" if nf.amphichiral else "chiral (normal form)",
+               "chirality_reason": nf.amphichiral_reason}
+        if out["crossing_number"] is None and alt_cn is not None:
+            out["crossing_number"], out["crossing_number_source"] = alt_cn, CN_ALT
+        return out
+    mfp = _mirror_fingerprint(row)
+    amph, reason = None, "unknown: invariants do not decide"
+    if row.get("components") == 1:
+        j = _poly(row.get("jones"))
+        if j is not None and j != _invert(j):
+            amph, reason = False, "chiral (jones): V(t) != V(1/t)"
+        elif row.get("signature") not in (None, 0):
+            amph, reason = False, "chiral (signature): signature != 0"
+    elif fp.startswith("fp:") and mfp != fp:
+        amph, reason = False, "chiral (jones): the sets of Jones polynomials over orientations differ"
+    return {"knot_key": fp, "mirror_key": mfp, "proof": "fingerprint only", "amphichiral": amph,
+            "amphichiral_reason": reason, "crossing_number": alt_cn,
+            "crossing_number_source": CN_ALT if alt_cn is not None else None, "fingerprint": fp}
+
+
+# ---------------------------------------------------------------------- tables
+def mark_duplicates(rows: list[dict]) -> list[Optional[int]]:
+    """For each row, the row_id of the first row (smallest row_id) with the same
+    ``diagram_id``, or None if it is that first row (or has no diagram_id)."""
+    first: dict[str, int] = {}
+    for r in sorted(rows, key=lambda r: r["row_id"]):
+        if r.get("diagram_id") is not None:
+            first.setdefault(r["diagram_id"], r["row_id"])
+    out = []
+    for r in rows:
+        f = first.get(r.get("diagram_id")) if r.get("diagram_id") is not None else None
+        out.append(None if f is None or f == r["row_id"] else f)
+    return out
+
+
+_ALWAYS = ("components", "determinant", "invariant_factors")
+_KNOT_ONLY = ("alexander", "jones", "signature")
+
+
+def _comparable(row: dict) -> dict:
+    out = {"components": row.get("components"),
+           "determinant": None if row.get("determinant") is None else int(row["determinant"]),
+           "invariant_factors": _factors(row.get("invariant_factors"))}
+    if row.get("components") == 1:
+        out.update(alexander=_poly(row.get("alexander")), jones=_poly(row.get("jones")),
+                   signature=None if row.get("signature") is None else int(row["signature"]))
+    return out
+
+
+def build_knots_table(rows: list[dict]) -> list[dict]:
+    """One row per knot key (see DESIGN.md ``knots``) from diagram rows carrying keys.
+
+    Each input row needs ``row_id``, ``notation``, ``crossings``, ``components``, the
+    invariants, and the :func:`knot_key` fields (``proof`` may be named ``knot_proof``);
+    rows without ``knot_key`` are keyed here.  Rows whose status is not ``ok`` are
+    still counted if they have a key.
+
+    Raises
+    ------
+    KeyConflictError
+        When two rows under one key differ in an orientation-free invariant
+        (components, determinant, invariant factors) or, for knots, in Alexander,
+        Jones or signature.
+    """
+    groups: dict[str, list[dict]] = {}
+    info: dict[int, dict] = {}
+    for r in rows:
+        k = r.get("knot_key")
+        meta = r if k is not None else {**r, **knot_key(r)}
+        if meta.get("knot_key") is None:
+            continue
+        info[id(r)] = meta
+        groups.setdefault(meta["knot_key"], []).append(r)
+    out = []
+    fp_of_key: dict[str, set] = {}
+    for key in sorted(groups):
+        members = sorted(groups[key], key=lambda r: (r.get("crossings") if r.get("crossings") is not None else 10**12, r["row_id"]))
+        ref: dict[str, Any] = {}
+        ref_row: dict[str, Any] = {}
+        for r in members:
+            for name, v in _comparable(r).items():
+                if v is None:
+                    continue
+                if name in ref and ref[name] != v:
+                    raise KeyConflictError(
+                        f"knot key {key!r}: rows {ref_row[name]} and {r['row_id']} differ in {name} "
+                        f"({_short(ref[name])} vs {_short(v)}); a normal form or an invariant is wrong")
+                ref.setdefault(name, v)
+                ref_row.setdefault(name, r["row_id"])
+        metas = [info[id(r)] for r in members]
+        proof = "normal form" if any((m.get("proof") or m.get("knot_proof")) == "normal form" for m in metas) else "fingerprint only"
+        cns = {(m.get("crossing_number"), m.get("crossing_number_source")) for m in metas if m.get("crossing_number") is not None}
+        values = {int(c) for c, _ in cns}
+        if len(values) > 1:
+            raise KeyConflictError(f"knot key {key!r}: certified crossing numbers disagree: {sorted(values)}")
+        cn, src = (min(cns, key=lambda t: (t[1] != CN_ALT, str(t[1]))) if cns else (None, None))
+        amph = [m.get("amphichiral") for m in metas if m.get("amphichiral") is not None]
+        if len(set(amph)) > 1:
+            raise KeyConflictError(f"knot key {key!r}: rows disagree on amphichirality")
+        reasons = [m.get("amphichiral_reason") for m in metas if m.get("amphichiral") is not None]
+        crossings = [r.get("crossings") for r in members if r.get("crossings") is not None]
+        did = {r.get("diagram_id") for r in members if r.get("diagram_id")}
+        fps = {m.get("fingerprint") for m in metas if m.get("fingerprint")}
+        for f in fps:
+            fp_of_key.setdefault(f, set()).add(key)
+        out.append({
+            "knot_key": key,
+            "representative": members[0].get("notation"),
+            "n_diagrams": len(members),
+            "n_distinct_diagrams": len(did) if did else None,
+            "proof": proof,
+            "mirror_key": metas[0].get("mirror_key"),
+            "amphichiral": amph[0] if amph else None,
+            "amphichiral_reason": reasons[0] if reasons else "unknown: invariants do not decide",
+            "min_crossings_seen": min(crossings) if crossings else None,
+            "crossing_number": cn,
+            "crossing_number_source": src,
+            "_fps": fps,
+        })
+    for row in out:
+        shared = set()
+        for f in row.pop("_fps"):
+            shared |= fp_of_key.get(f, set())
+        shared.discard(row["knot_key"])
+        row["fingerprint_shared_with"] = sorted(shared)
+    return out
+
+
+def _short(v: Any) -> str:
+    s = json.dumps(v)
+    return s if len(s) <= 60 else s[:57] + "..."
