@@ -1,0 +1,113 @@
+"""The PNG plots of ``knotledger report`` (matplotlib, Agg back-end, imported lazily).
+
+Every function takes already-aggregated plain data and a path, draws one figure and
+writes it; with no data it still writes a figure that says so, so the set of plot files
+of a report is always the same (:data:`PLOTS`).
+"""
+
+from __future__ import annotations
+
+from pathlib import Path
+from typing import Sequence
+
+__all__ = ["PLOTS", "histogram_by_family", "grouped_bars", "stacked_bars", "line_plot"]
+
+#: file name -> title; every report writes all of them.
+PLOTS = {
+    "determinant_distribution.png": "Determinant distribution per family",
+    "prime_colorability.png": "Fraction of each family that is nontrivially p-colourable",
+    "min_colors.png": "Fewest colours of a nontrivial p-colouring (per diagram)",
+    "knot_collapse.png": "Diagrams versus distinct knot types per family",
+    "chirality.png": "Chirality verdicts per family",
+    "timings.png": "Seconds per committed chunk",
+}
+
+
+def _pyplot():
+    import matplotlib
+    matplotlib.use("Agg", force=True)
+    import matplotlib.pyplot as plt
+    return plt
+
+
+def _finish(fig, ax, path: Path, title: str, empty: bool) -> Path:
+    if empty:
+        ax.text(0.5, 0.5, "no data", ha="center", va="center", transform=ax.transAxes, fontsize=14)
+        ax.set_xticks([])
+        ax.set_yticks([])
+    ax.set_title(title)
+    fig.tight_layout()
+    fig.savefig(path, dpi=90)
+    _pyplot().close(fig)
+    return path
+
+
+def histogram_by_family(data: dict[str, Sequence[int]], path: Path, title: str, *, xlabel: str) -> Path:
+    """One step histogram per family; log-scaled x axis when values span > 3 decades."""
+    plt = _pyplot()
+    fig, ax = plt.subplots(figsize=(7, 4))
+    values = [v for vs in data.values() for v in vs]
+    if values:
+        import math
+        top = max(values)
+        log = top > 1000 and min(v for v in values if v > 0) * 1000 < top if any(v > 0 for v in values) else False
+        if log:
+            edges = [10 ** (k / 4) for k in range(0, int(4 * math.log10(top)) + 6)]
+            ax.set_xscale("log")
+        else:
+            edges = [x - 0.5 for x in range(0, int(top) + 2)] if top <= 60 else 40
+        for family, vs in sorted(data.items()):
+            ax.hist([max(v, 1) if log else v for v in vs], bins=edges, histtype="step", linewidth=1.5,
+                    label=f"{family} ({len(vs)})")
+        ax.set_xlabel(xlabel)
+        ax.set_ylabel("diagrams")
+        ax.legend(fontsize=8)
+    return _finish(fig, ax, path, title, not values)
+
+
+def grouped_bars(groups: Sequence[str], series: dict[str, Sequence[float]], path: Path, title: str, *,
+                 xlabel: str, ylabel: str) -> Path:
+    """Bars for each group (x) and series (colour)."""
+    plt = _pyplot()
+    fig, ax = plt.subplots(figsize=(7, 4))
+    n = max(len(series), 1)
+    width = 0.8 / n
+    for k, (name, vals) in enumerate(sorted(series.items())):
+        xs = [i + (k - (n - 1) / 2) * width for i in range(len(groups))]
+        ax.bar(xs, vals, width=width, label=str(name))
+    if groups and series:
+        ax.set_xticks(range(len(groups)))
+        ax.set_xticklabels([str(g) for g in groups])
+        ax.set_xlabel(xlabel)
+        ax.set_ylabel(ylabel)
+        ax.legend(fontsize=8)
+    return _finish(fig, ax, path, title, not (groups and series))
+
+
+def stacked_bars(groups: Sequence[str], series: dict[str, Sequence[int]], path: Path, title: str, *,
+                 ylabel: str) -> Path:
+    """Stacked bars: one bar per group, one colour per series."""
+    plt = _pyplot()
+    fig, ax = plt.subplots(figsize=(7, 4))
+    bottom = [0] * len(groups)
+    for name, vals in sorted(series.items()):
+        ax.bar(range(len(groups)), vals, bottom=bottom, label=str(name))
+        bottom = [b + v for b, v in zip(bottom, vals)]
+    if groups and series:
+        ax.set_xticks(range(len(groups)))
+        ax.set_xticklabels([str(g) for g in groups], rotation=15)
+        ax.set_ylabel(ylabel)
+        ax.legend(fontsize=8)
+    return _finish(fig, ax, path, title, not (groups and series))
+
+
+def line_plot(xs: Sequence[float], ys: Sequence[float], path: Path, title: str, *, xlabel: str,
+              ylabel: str) -> Path:
+    """A simple marker plot."""
+    plt = _pyplot()
+    fig, ax = plt.subplots(figsize=(7, 3.5))
+    if xs:
+        ax.plot(xs, ys, "o-", markersize=3)
+        ax.set_xlabel(xlabel)
+        ax.set_ylabel(ylabel)
+    return _finish(fig, ax, path, title, not xs)

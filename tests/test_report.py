@@ -1,0 +1,87 @@
+"""knotledger report: Markdown + self-contained HTML + every plot file."""
+
+from __future__ import annotations
+
+import re
+import shutil
+from pathlib import Path
+
+import pytest
+
+from _census_fixture import shared_census
+from pipeline.census_api import open_census
+from pipeline.cli import main as cli
+from pipeline.report import build_report, render_html, render_markdown
+from pipeline.report_plots import PLOTS
+
+PNG = b"\x89PNG\r\n\x1a\n"
+
+
+@pytest.fixture(scope="module")
+def report_dir(tmp_path_factory) -> Path:
+    # a private copy: the report writes into the census directory
+    src = shared_census(tmp_path_factory)
+    dst = tmp_path_factory.mktemp("report") / "census"
+    shutil.copytree(src, dst)
+    assert cli(["report", str(dst)]) == 0
+    return dst
+
+
+def test_report_renders_and_every_plot_file_exists(report_dir):
+    md = (report_dir / "report.md").read_text()
+    page = (report_dir / "report.html").read_text()
+    linked = re.findall(r"\]\(plots/([^)]+)\)", md)
+    assert set(PLOTS) <= set(linked)
+    for name in linked:
+        data = (report_dir / "plots" / name).read_bytes()
+        assert data.startswith(PNG) and len(data) > 1000, name
+    # self-contained HTML: every image embedded, none linked
+    assert page.count("data:image/png;base64,") == len(linked)
+    assert "src='plots/" not in page
+    for section in ("Determinants", "Colourability by prime", "Fewest colours", "Knot types",
+                    "Chirality", "Certification failures", "Timings", "Rejects"):
+        assert f"## {section}" in md and f"<h2>{section}</h2>" in page
+
+
+def test_report_numbers_match_the_tables(report_dir):
+    c = open_census(report_dir)
+    md = (report_dir / "report.md").read_text()
+    for family, n in c.diagrams["family"].value_counts().items():
+        assert re.search(rf"\| {family} \| {n} \|", md), family
+    # two-bridge determinants: det b(alpha, beta) = alpha (Schubert 1956), so min/max are the alpha range
+    tb = c.diagrams[c.diagrams["family"] == "two_bridge"]
+    dets = sorted(int(x) for x in tb["determinant"])
+    assert f"| two_bridge | {len(dets)} | {dets[0]} |" in md
+
+
+def test_report_mentions_mutants_and_fingerprint_limits(report_dir):
+    md = (report_dir / "report.md").read_text()
+    assert "P(2,3,3,5)" in md and "P(2,3,5,3)" in md and "fingerprints cannot separate" in md
+
+
+def test_fewest_colours_of_knots_respect_the_published_bound(report_dir):
+    # >= floor(log2 p) + 2 over all diagrams of a knot *(memory: Nakamura-Nakanishi-Satoh 2013)*
+    c = open_census(report_dir)
+    col = c.colorings.merge(c.diagrams[["row_id", "components"]], on="row_id")
+    knots = col[(col["components"] == 1) & col["min_colors"].notna()]
+    assert len(knots) > 0
+    for p, m in zip(knots["modulus"], knots["min_colors"]):
+        assert int(m) >= int(p).bit_length() + 1
+    assert "WARNING" not in (report_dir / "report.md").read_text()
+
+
+def test_report_on_an_empty_census_still_writes_every_plot(tmp_path, report_dir):
+    empty = tmp_path / "empty"
+    for table in ("diagrams", "colorings", "knots", "rejects"):
+        (empty / table).mkdir(parents=True)
+        for part in (report_dir / table).glob("part-schema*.parquet"):
+            shutil.copy(part, empty / table / part.name)
+    md, page, files = build_report(empty)
+    assert {f.name for f in files} == set(PLOTS)
+    assert all(f.read_bytes().startswith(PNG) for f in files)
+
+
+def test_renderers_escape_cells():
+    blocks = [("h", 1, "T"), ("table", ["a|b", "<x>"], [["1|2", "<script>"]])]
+    assert "1\\|2" in render_markdown(blocks)
+    assert "<script>" not in render_html(blocks, Path("."))
