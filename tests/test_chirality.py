@@ -148,3 +148,33 @@ def test_reversing_a_knot_keeps_its_values():
 def test_reverse_components_rejects_bad_indices(which):
     with pytest.raises(ValueError, match="is not a component index"):
         reverse_components(parse("torus:2,2"), which)
+
+
+def test_link_falls_back_to_signatures_when_jones_is_over_budget():
+    # T(2,4): the signatures over both orientations are {−3, +1} (reversing one
+    # component of the positive T(2,4) gives lk = −2, σ = 1); the mirror's are {3, −1}
+    d = parse("torus:2,4")
+    values = {"jones": jones_polynomial(d), "signature": signature(d)}
+    assert signature(reverse_components(d, [1])) == 1
+    assert chirality(d, values, budget=1) == (
+        "chiral (signature)", "signatures over 2 orientations differ from the mirror's")
+
+
+def test_reversing_a_component_shifts_signature_by_twice_its_linking_number():
+    # Murasugi 1965 *(memory)*: reversing a component K of L changes σ by 2·lk(K, L − K);
+    # checked on random braid closures with several components
+    import random
+
+    rng = random.Random(7)
+    tried = 0
+    while tried < 40:
+        n = rng.randint(2, 5)
+        word = [rng.choice([1, -1]) * rng.randint(1, n - 1) for _ in range(rng.randint(2, 10))]
+        d = parse("braid:" + ",".join(map(str, word)))
+        if len(d.components) < 2:
+            continue
+        tried += 1
+        lks = linking_numbers(d)
+        for k in range(len(d.components)):
+            lk = sum(v for pair, v in lks.items() if k in pair)
+            assert signature(reverse_components(d, [k])) == signature(d) + 2 * lk, (word, k)

@@ -32,6 +32,7 @@ from itertools import combinations
 from typing import Any, Iterable, Optional
 
 from ..diagram import Diagram
+from ..errors import BudgetExceeded
 from ..poly import Laurent
 
 __all__ = ["chirality", "reverse_components", "orientation_values"]
@@ -110,7 +111,7 @@ def _mirror_values(values: set[tuple]) -> set[tuple]:
     return {(v.invert() if v is not None else None, -s if s is not None else None) for v, s in values}
 
 
-def chirality(diagram: Diagram, values: dict[str, Any]) -> tuple[str, str]:
+def chirality(diagram: Diagram, values: dict[str, Any], *, budget: Optional[int] = None) -> tuple[str, str]:
     """Chirality verdict and its reason, from Jones and signature.
 
     Parameters
@@ -120,6 +121,10 @@ def chirality(diagram: Diagram, values: dict[str, Any]) -> tuple[str, str]:
         Already computed values: ``jones`` (Laurent or None when skipped) and
         ``signature`` (int or None).  For links the other orientations are computed
         here (Jones only when ``values['jones']`` was computed).
+    budget : int, optional
+        Jones budget for the other orientations of a link (as for
+        :func:`pipeline.invariants.jones.jones_polynomial`); if one of them exceeds
+        it, only the signatures are compared.
 
     Returns
     -------
@@ -136,7 +141,7 @@ def chirality(diagram: Diagram, values: dict[str, Any]) -> tuple[str, str]:
     s: Optional[int] = values.get("signature")
     if len(diagram.components) <= 1:  # a knot (free loops only: the unknot/unlink family)
         if diagram.free_loops and diagram.components:
-            return _link_verdict(diagram, v, s)
+            return _link_verdict(diagram, v, s, budget)
         if v is not None and v != v.invert():
             return "chiral (jones)", "V(t) != V(1/t)"
         if s is not None and s != 0:
@@ -145,14 +150,21 @@ def chirality(diagram: Diagram, values: dict[str, Any]) -> tuple[str, str]:
         if not done:
             return "unknown", "jones and signature not computed"
         return "unknown", f"{' and '.join(done)} {'agree' if len(done) > 1 else 'agrees'} with the mirror"
-    return _link_verdict(diagram, v, s)
+    return _link_verdict(diagram, v, s, budget)
 
 
-def _link_verdict(diagram: Diagram, v: Optional[Laurent], s: Optional[int]) -> tuple[str, str]:
+def _link_verdict(diagram: Diagram, v: Optional[Laurent], s: Optional[int],
+                  budget: Optional[int]) -> tuple[str, str]:
     use_jones, use_sig = v is not None, s is not None
     if not (use_jones or use_sig):
         return "unknown", "jones and signature not computed"
-    vals = orientation_values(diagram, jones=use_jones, signature=use_sig)
+    try:
+        vals = orientation_values(diagram, jones=use_jones, signature=use_sig, budget=budget)
+    except BudgetExceeded:
+        if not use_sig:
+            return "unknown", "jones of the other orientations over budget; signature not computed"
+        use_jones = False
+        vals = orientation_values(diagram, jones=False, signature=True)
     mirrored = _mirror_values(vals)
     n = 2 ** max(len(diagram.components) - 1, 0)
     if use_jones and {x for x, _ in vals} != {x for x, _ in mirrored}:
