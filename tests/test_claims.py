@@ -206,3 +206,35 @@ def test_factors_list_and_in(census):
     r = check_claim(census, "factors == (3, 3) and colorings(3) == 27", family="pretzel",
                     where="p1 == 3 and p2 == 3 and p3 == -3")
     assert r.selected == 1 and r.held == 1
+
+
+def _tiny_census(tmp_path: Path, rows: list[dict]) -> Path:
+    """A hand-made census directory (two diagrams rows) for the int64-overflow path."""
+    import pyarrow as pa
+    import pyarrow.parquet as pq
+    out = tmp_path / "tiny"
+    schema = pa.schema([("row_id", pa.int64()), ("family", pa.string()), ("params", pa.string()),
+                        ("notation", pa.string()), ("determinant", pa.int64()),
+                        ("determinant_text", pa.string()), ("invariant_factors", pa.list_(pa.string()))])
+    for t in ("diagrams", "colorings", "knots", "rejects"):
+        (out / t).mkdir(parents=True)
+    pq.write_table(pa.Table.from_pylist(rows, schema=schema), out / "diagrams" / "part-0.parquet")
+    return out
+
+
+def test_determinant_beyond_int64_is_read_exactly_from_text(tmp_path):
+    # a two-bridge knot b(alpha, 1) with alpha ~ 10^83: int64 column null, exact text beside it
+    alpha = 10 ** 83 + 3
+    rows = [{"row_id": 0, "family": "two_bridge", "params": json.dumps({"alpha": alpha, "beta": 1}),
+             "notation": f"rational:{alpha}/1", "determinant": None, "determinant_text": str(alpha),
+             "invariant_factors": [str(alpha)]},
+            {"row_id": 1, "family": "two_bridge", "params": json.dumps({"alpha": alpha + 2, "beta": 1}),
+             "notation": f"rational:{alpha + 2}/1", "determinant": None, "determinant_text": str(alpha + 1),
+             "invariant_factors": [str(alpha + 1)]}]
+    census = _tiny_census(tmp_path, rows)
+    r = check_claim(census, "determinant == alpha and factors == (alpha,)", family="two_bridge")
+    assert r.selected == 2 and r.held == 1 and r.n_counterexamples == 1
+    (c,) = r.counterexamples
+    assert c["row_id"] == 1 and c["values"]["determinant"] == alpha + 1  # exact, not rounded
+    # a float route would lose this: alpha and alpha + 1 are the same double
+    assert float(alpha) == float(alpha + 1)
