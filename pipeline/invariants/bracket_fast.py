@@ -35,7 +35,6 @@ from typing import Optional, Sequence
 
 import flint
 
-from ..builder import PlanarBuilder  # noqa: F401  (the construction mirrored here)
 from ..families import montesinos as _montesinos
 from ..families import two_bridge as _two_bridge
 from ..poly import Laurent
@@ -48,8 +47,6 @@ _Pair = tuple[_Poly, _Poly]
 _ZERO: _Poly = (0, flint.fmpz_poly([]))
 _ONE: _Poly = (0, flint.fmpz_poly([1]))
 _DELTA: _Poly = (-2, flint.fmpz_poly([-1, 0, 0, 0, -1]))
-_A: _Poly = (1, flint.fmpz_poly([1]))
-_A_INV: _Poly = (-1, flint.fmpz_poly([1]))
 
 
 def _add(x: _Poly, y: _Poly) -> _Poly:
@@ -72,16 +69,26 @@ def _tangle_sum(t: _Pair, s: _Pair) -> _Pair:
     return _mul(f, f2), _add(_add(_mul(f, g2), _mul(g, f2)), _mul(_DELTA, _mul(g, g2)))
 
 
-def _tangle_product(t: _Pair, s: _Pair) -> _Pair:
-    (f, g), (f2, g2) = t, s
-    return _add(_add(_mul(f, g2), _mul(g, f2)), _mul(_DELTA, _mul(f, f2))), _mul(g, g2)
+def _shift(x: _Poly, k: int, sign: int = 1) -> _Poly:
+    """±A^k · x."""
+    return (x[0] + k, x[1] if sign > 0 else -x[1])
 
 
-def _crossing(sign: int) -> _Pair:
-    """builder._crossing_tangle(sign): sign > 0 puts the under-strand on SW–NE, so the
-    A-smoothing (each under-strand end joined to the next slot counterclockwise)
-    is SW–SE, NE–NW = [0]."""
-    return (_A, _A_INV) if sign > 0 else (_A_INV, _A)
+def _twist(t: _Pair, s: int, horizontal: bool) -> _Pair:
+    """One half-twist: ``t + c`` (horizontal) or ``t * c`` (vertical) for the crossing
+    c drawn by ``builder._crossing_tangle(s)``.  For s > 0 its under-strand runs
+    SW–NE, so its A-smoothing (each under-strand end joined to the next slot
+    counterclockwise) is SW–SE, NE–NW = [0]: c = (A^s, A^-s) for s = ±1.  The
+    rules above then simplify, because
+    A^s + δA^-s = −A^(−3s) and A^-s + δA^s = −A^(3s):
+
+    * horizontal: (f, g) -> (A^s f, A^-s f − A^(−3s) g),
+    * vertical:   (f, g) -> (A^s g − A^(3s) f, A^-s g).
+    """
+    f, g = t
+    if horizontal:
+        return _shift(f, s), _add(_shift(f, -s), _shift(g, -3 * s, -1))
+    return _add(_shift(g, s), _shift(f, 3 * s, -1)), _shift(g, -s)
 
 
 def _rational_pair(terms: Sequence[int], picture: int) -> _Pair:
@@ -90,10 +97,9 @@ def _rational_pair(terms: Sequence[int], picture: int) -> _Pair:
     t: _Pair = (_ONE, _ZERO) if n % 2 == 1 else (_ZERO, _ONE)
     for k in range(n, 0, -1):
         a = terms[k - 1]
-        c = _crossing(picture * (1 if a > 0 else -1))
-        op = _tangle_sum if k % 2 == 1 else _tangle_product
+        s = picture * (1 if a > 0 else -1)
         for _ in range(abs(a)):
-            t = op(t, c)
+            t = _twist(t, s, k % 2 == 1)
     return t
 
 

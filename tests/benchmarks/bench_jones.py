@@ -22,8 +22,17 @@ import time
 
 import flint
 
-from pipeline.invariants.jones import frontier_width, jones_polynomial
+from fractions import Fraction
+
+from pipeline.invariants.bracket_fast import montesinos_bracket, two_bridge_bracket
+from pipeline.invariants.jones import frontier_width, jones_from_bracket, jones_polynomial
 from pipeline.notation import parse
+
+sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), ".."))
+from slow_routes import state_sum_jones  # noqa: E402  (the tests' 2^n reference route)
+
+#: small diagrams timed side by side against the all-states sum (ratios)
+SIDE_BY_SIDE = ["torus:2,9", "torus:3,5", "conway:2 2 2 2 2", "pretzel:3,3,-3,3", "torus:3,7"]
 
 FAMILIES = {
     "T(3,q)": [f"torus:3,{q}" for q in (13, 25, 50, 100, 200)],
@@ -34,13 +43,24 @@ FAMILIES = {
 }
 
 
-def best_time(diagram, repeat: int) -> float:
+def best_time(diagram, repeat: int, fn=jones_polynomial) -> float:
     best = math.inf
     for _ in range(repeat):
         t0 = time.perf_counter()
-        jones_polynomial(diagram)
+        fn(diagram)
         best = min(best, time.perf_counter() - t0)
     return best
+
+
+def fast_route(text: str):
+    """The tangle-pair route for a conway:/pretzel: string (None if it does not apply)."""
+    if text.startswith("conway:"):
+        terms = [int(a) for a in text[7:].split()]
+        return lambda d: jones_from_bracket(two_bridge_bracket(terms), d.writhe)
+    if text.startswith("pretzel:"):
+        fr = [Fraction(1, int(p)) for p in text[8:].split(",")]
+        return lambda d: jones_from_bracket(montesinos_bracket(fr), d.writhe)
+    return None
 
 
 def fit_exponent(points: list[tuple[int, float]]) -> float:
@@ -66,15 +86,33 @@ def main(argv: list[str] | None = None) -> int:
 
     rows, fits = [], {}
     for family, texts in FAMILIES.items():
-        points = []
+        points, fast_points = [], []
         for text in texts:
             d = parse(text)
             secs = best_time(d, args.repeat)
-            span = jones_polynomial(d).span()
-            rows.append((family, short(text), d.n_crossings, d.n_components, frontier_width(d), span, secs))
+            value = jones_polynomial(d)
+            span = value.span()
+            fast = fast_route(text)
+            fast_secs = None
+            if fast is not None:
+                assert fast(d) == value, text
+                fast_secs = best_time(d, args.repeat, fast)
+                fast_points.append((d.n_crossings, fast_secs))
+            rows.append((family, short(text), d.n_crossings, d.n_components, frontier_width(d), span, secs,
+                         fast_secs))
             points.append((d.n_crossings, secs))
             print(f"{family:18} {short(text):22} n={d.n_crossings:4d} {secs * 1000:9.2f} ms", file=sys.stderr)
-        fits[family] = fit_exponent([p for p in points if p[0] >= 50])
+        fits[family] = (fit_exponent([p for p in points if p[0] >= 50]),
+                        fit_exponent([p for p in fast_points if p[0] >= 50]) if fast_points else None)
+    side = []
+    for text in SIDE_BY_SIDE:
+        d = parse(text)
+        fast = best_time(d, args.repeat)
+        t0 = time.perf_counter()
+        slow_value = state_sum_jones(d)
+        slow = time.perf_counter() - t0
+        assert slow_value == jones_polynomial(d), text
+        side.append((text, d.n_crossings, fast, slow))
     t2 = parse("torus:2,401")
     t2_secs = best_time(t2, args.repeat)
     t2_cold = parse("torus:2,401")
@@ -99,18 +137,31 @@ def main(argv: list[str] | None = None) -> int:
         "",
         "## Growth exponent (time ≈ C·n^k, least squares on log-log, n ≥ 50; goal k ≤ 2.5)",
         "",
-        "| family | k |",
-        "|---|---|",
+        "| family | k, general route | k, tangle route |",
+        "|---|---|---|",
     ]
-    lines += [f"| {f} | {k:.2f} |" for f, k in fits.items()]
+    lines += [f"| {f} | {k:.2f} | {'–' if k2 is None else f'{k2:.2f}'} |" for f, (k, k2) in fits.items()]
     lines += [
         "",
         "## Timings",
         "",
-        "| family | diagram | crossings | components | max frontier | span V | time (ms) |",
-        "|---|---|---|---|---|---|---|",
+        "General route = frontier programme on the diagram; tangle route = bracket pairs "
+        "(`bracket_fast.py`) for the same diagram, same run, values checked equal.",
+        "",
+        "| family | diagram | crossings | components | max frontier | span V | general (ms) | tangle route (ms) | ratio |",
+        "|---|---|---|---|---|---|---|---|---|",
     ]
-    lines += [f"| {f} | `{t}` | {n} | {c} | {w} | {s} | {secs * 1000:.2f} |" for f, t, n, c, w, s, secs in rows]
+    for f, t, n, c, w, s, secs, fast_secs in rows:
+        extra = "| – | –" if fast_secs is None else f"| {fast_secs * 1000:.2f} | {secs / fast_secs:.1f}x"
+        lines.append(f"| {f} | `{t}` | {n} | {c} | {w} | {s} | {secs * 1000:.2f} {extra} |")
+    lines += [
+        "",
+        "## Side by side with the all-states sum (same run; values checked equal)",
+        "",
+        "| diagram | crossings | programme (ms) | 2^n state sum (ms) | ratio |",
+        "|---|---|---|---|---|",
+    ]
+    lines += [f"| `{t}` | {n} | {f * 1000:.2f} | {s * 1000:.1f} | {s / f:.0f}x |" for t, n, f, s in side]
     lines.append("")
     with open(args.out, "w", encoding="utf-8") as fh:
         fh.write("\n".join(lines))
