@@ -12,8 +12,9 @@ single remaining entry is ``δ · <D>`` and one exact division gives the bracket
 
 The crossings are ordered greedily: next comes the unprocessed crossing that
 shrinks the frontier most (most slots on frontier edges), ties broken in favour of
-the crossing that first touched the processed region earliest (breadth first).
-On the diagrams of the families (braid closures on few strands, pretzel,
+the crossing that first touched the processed region earliest (breadth first);
+several first crossings are tried and the order with the least estimated work
+kept.  On the diagrams of the families (braid closures on few strands, pretzel,
 two-bridge and Montesinos diagrams) the frontier stays short, the number of
 planar matchings is bounded, and the work is polynomial in the crossing number.
 
@@ -30,6 +31,11 @@ Polynomials in A are stored as ``(offset, fmpz_poly)`` pairs meaning
 ``A^offset · p(A)`` (exact python-flint integer polynomials).  Their degrees are
 bounded by 4·(crossings + loops) + 4, so no flint call is ever unbounded; the
 ``budget`` bounds the number of matchings kept at once.
+
+Diagrams built from rational tangles (two-bridge, pretzel, Montesinos) also have
+a linear-time route by bracket pairs, :mod:`pipeline.invariants.bracket_fast`;
+:func:`jones_from_bracket` turns its bracket into V.  The tests check the two
+routes against each other and against the 2^n state sum.
 
 References
 ----------
