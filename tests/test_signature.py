@@ -243,6 +243,25 @@ def test_signature_matches_braid_seifert_matrix(word):
     assert abs(data.goeritz_determinant) == abs(det)
 
 
+@settings(max_examples=60, deadline=None)
+@given(words)
+def test_both_checkerboard_shadings_give_the_same_signature(word):
+    # Gordon–Litherland 1978: σ = sign(G_F) − μ(F) for either checkerboard surface F
+    d = braid(word)
+    a, b = signature_data(d), signature_data(d, other_shading=True)
+    assert (a.signature, a.nullity, abs(a.goeritz_determinant)) == \
+        (b.signature, b.nullity, abs(b.goeritz_determinant))
+
+
+@pytest.mark.parametrize("notation", ["torus:3,7", "pretzel:3,-5,7,2", "montesinos:1/3,2/5,-1/2",
+                                      "rational:55/21", "torus:4,6"])
+def test_both_shadings_agree_on_family_members(notation):
+    d = parse(notation)
+    a, b = signature_data(d), signature_data(d, other_shading=True)
+    assert (a.signature, a.nullity, abs(a.goeritz_determinant)) == \
+        (b.signature, b.nullity, abs(b.goeritz_determinant))
+
+
 # ---------------------------------------------------------------- exact inertia
 small_symmetric = st.integers(1, 6).flatmap(lambda n: st.lists(
     st.integers(-3, 3), min_size=n * n, max_size=n * n).map(

@@ -202,14 +202,21 @@ def _face_colours(diagram: Diagram) -> tuple[dict[tuple[int, int], int], list[in
     return face_of, colour
 
 
-def _piece_goeritz(diagram: Diagram, piece: list[int], face_of, colour) -> tuple[dict, int]:
-    """Sparse Goeritz matrix (R_0 deleted) and the correction μ of one piece."""
+def _piece_goeritz(diagram: Diagram, piece: list[int], face_of, colour,
+                   other_shading: bool = False) -> tuple[dict, int]:
+    """Sparse Goeritz matrix (R_0 deleted) and the correction μ of one piece.
+
+    White is the colour class with fewer faces (ties: the class of the piece's first
+    face); ``other_shading`` swaps the colours (Gordon–Litherland holds for both).
+    """
     piece_faces = sorted({face_of[(j, s)] for j in piece for s in range(4)})
     counts = [0, 0]
     for f in piece_faces:
         counts[colour[f]] += 1
     first = colour[piece_faces[0]]
     white = first if counts[first] <= counts[1 - first] else 1 - first
+    if other_shading:
+        white = 1 - white
     index = {}
     for f in piece_faces:
         if colour[f] == white:
@@ -238,9 +245,9 @@ def _piece_goeritz(diagram: Diagram, piece: list[int], face_of, colour) -> tuple
     return rows, mu
 
 
-def _blocks(diagram: Diagram):
+def _blocks(diagram: Diagram, other_shading: bool = False):
     face_of, colour = _face_colours(diagram)
-    return [_piece_goeritz(diagram, piece, face_of, colour) for piece in diagram.pieces]
+    return [_piece_goeritz(diagram, piece, face_of, colour, other_shading) for piece in diagram.pieces]
 
 
 def goeritz_matrix(diagram: Diagram) -> list[list[int]]:
@@ -280,12 +287,15 @@ def goeritz_matrix(diagram: Diagram) -> list[list[int]]:
 
 
 @lru_cache(maxsize=512)
-def signature_data(diagram: Diagram) -> SignatureData:
+def signature_data(diagram: Diagram, *, other_shading: bool = False) -> SignatureData:
     """Signature, nullity, Goeritz determinant and μ of a diagram in one elimination.
 
-    See the module docstring for the conventions.  Results are cached per diagram.
+    See the module docstring for the conventions.  ``other_shading=True`` uses the
+    other checkerboard colouring (the larger Goeritz matrix); by the
+    Gordon–Litherland theorem signature, nullity and |det| are the same.  Results
+    are cached per diagram.
     """
-    blocks = _blocks(diagram)
+    blocks = _blocks(diagram, other_shading)
     sig = null = mu_total = 0
     det = 1
     for rows, mu in blocks:
