@@ -37,7 +37,8 @@ from .census_api import Census, exact_int, open_census, parse_params
 from .errors import ClaimError
 from .safe_expr import Expression, Null, compile_expression
 
-__all__ = ["ClaimResult", "RowEnv", "census_rows", "check_claim", "add_arguments", "main"]
+__all__ = ["ClaimResult", "RowEnv", "census_rows", "check_claim", "format_result", "language_help",
+           "add_arguments", "main"]
 
 #: Short names for columns.
 ALIASES = {"factors": "invariant_factors"}
@@ -331,7 +332,23 @@ def format_result(r: ClaimResult) -> str:
     return "\n".join(lines) + "\n"
 
 
+def language_help() -> str:
+    """A short reference of the expression language (printed by ``check --help``)."""
+    from .safe_expr import FUNCTIONS, ROW_FUNCTIONS
+    funcs = "; ".join(f"{n}: {FUNCTIONS[n][3]}" for n in sorted(FUNCTIONS))
+    rows = "; ".join(f"{ROW_FUNCTIONS[n][2]}" for n in sorted(ROW_FUNCTIONS))
+    return ("Expressions: integers, strings, True/False, tuples; names of family parameters (p, q, p1.., "
+            "alpha, beta, t1..) and diagrams columns (determinant, crossings, components, writhe, "
+            "signature, family, chirality, factors = invariant factors as a list, ...); + - * / // % ** "
+            "(exact; / gives a fraction), comparisons (chained), in, and/or/not, X if C else Y. "
+            f"Functions: {funcs}. Row functions: {rows}. Anything else (attribute access, subscripts, "
+            "imports, lambdas, comprehensions, dunder names, other calls) is refused. A null value used "
+            "while evaluating makes the row undecided. Exit status: 0 held, 1 counterexample, 2 no row "
+            "selected/decided or bad input.")
+
+
 def add_arguments(parser: argparse.ArgumentParser) -> None:
+    parser.epilog = language_help()
     parser.add_argument("directory", metavar="DIR", help="census directory")
     parser.add_argument("--claim", required=True, metavar="EXPR",
                         help="formula to test on every selected row, e.g. 'determinant == alpha'")

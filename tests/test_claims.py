@@ -238,3 +238,37 @@ def test_determinant_beyond_int64_is_read_exactly_from_text(tmp_path):
     assert c["row_id"] == 1 and c["values"]["determinant"] == alpha + 1  # exact, not rounded
     # a float route would lose this: alpha and alpha + 1 are the same double
     assert float(alpha) == float(alpha + 1)
+
+
+# ------------------------------------------------------------------ randomised: language vs direct arithmetic
+from hypothesis import given, settings, strategies as st  # noqa: E402
+
+
+def _trees():
+    leaf = st.one_of(st.integers(-30, 30).map(lambda n: (f"({n})", lambda x, y, n=n: n)),
+                     st.just(("x", lambda x, y: x)), st.just(("y", lambda x, y: y)))
+
+    def extend(sub):
+        def combine(op, a, b):
+            (sa, fa), (sb, fb) = a, b
+            fn = {"+": lambda u, v: u + v, "-": lambda u, v: u - v, "*": lambda u, v: u * v,
+                  "//": lambda u, v: u // v, "%": lambda u, v: u % v}[op]
+            return f"({sa} {op} {sb})", lambda x, y: fn(fa(x, y), fb(x, y))
+        return st.builds(combine, st.sampled_from(["+", "-", "*", "//", "%"]), sub, sub)
+    return st.recursive(leaf, extend, max_leaves=12)
+
+
+@settings(max_examples=150, deadline=None)
+@given(_trees(), st.integers(-10 ** 30, 10 ** 30), st.integers(-50, 50))
+def test_language_arithmetic_matches_direct_integer_arithmetic(tree, x, y):
+    text, direct = tree
+    try:
+        expected = direct(x, y)
+    except ZeroDivisionError:
+        expected = None  # the language makes a division by zero undecided
+    expr = compile_expression(text)
+    try:
+        got = expr.evaluate(Env(x=x, y=y))
+    except Null:
+        got = None
+    assert got == expected, text
