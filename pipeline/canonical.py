@@ -93,20 +93,41 @@ def _twins(pd) -> list[int]:
     return tw
 
 
-def _walk(tw, start: int, best: list[int] | None):
+def _reference(tw) -> tuple[list[int], list[bool]]:
+    """(component id, is-entry in a reference orientation) for every flat slot."""
+    n4 = len(tw)
+    comp = [-1] * n4
+    entry = [False] * n4
+    c = 0
+    for s0 in range(n4):
+        if comp[s0] >= 0:
+            continue
+        s = s0
+        while True:
+            i, r = divmod(s, 4)
+            out = 4 * i + (r + 2) % 4
+            comp[s] = comp[out] = c
+            entry[s] = True
+            s = tw[out]
+            if s == s0:
+                break
+        c += 1
+    return comp, entry
+
+
+def _walk(tw, comp, ref, start: int, best: list[int] | None):
     """Code of the walk from entry slot ``start``; stop early when it exceeds ``best``.
 
     Returns (code, entries, status) where status is -1 (smaller than best, or no
     best), 0 (equal), 1 (larger; code truncated).  ``entries`` lists the entered
-    slots in walk order, with None between components.
+    slots in walk order, with None between components.  A component's direction is
+    +1 (reference orientation) or -1, fixed where the walk first meets it.
     """
-    n4 = len(tw)
-    is_entry = [0] * n4            # 1 entered, 2 left (exit), 0 undecided
+    direction = {comp[start]: 1 if ref[start] else -1}
     order: dict[int, int] = {}     # crossing -> first visit index
     code: list[int] = []
     entries: list[int | None] = []
     queue = [start]
-    _orient(tw, start, is_entry)
     qi = 0
     pos = 0
     state = -1 if best is None else 0
@@ -128,10 +149,12 @@ def _walk(tw, start: int, best: list[int] | None):
         while True:
             i, r = divmod(s, 4)
             left = 4 * i + (r + 1) % 4
-            if is_entry[left] == 0:          # meet a new component: orient and queue it
-                _orient(tw, left, is_entry)
+            c = comp[left]
+            dc = direction.get(c)
+            if dc is None:                   # meet a new component: orient and queue it
+                dc = direction[c] = 1 if ref[left] else -1
                 queue.append(left)
-            other_left = 1 if is_entry[left] == 1 else 0
+            other_left = 1 if ref[left] == (dc == 1) else 0
             k = order.setdefault(i, len(order))
             tok = 4 * k + 2 * (r % 2) + other_left
             if state == 0:
@@ -151,32 +174,20 @@ def _walk(tw, start: int, best: list[int] | None):
     return code, entries, state
 
 
-def _orient(tw, start: int, is_entry: list[int]) -> None:
-    """Mark the component through entry slot ``start`` as travelled from there."""
-    s = start
-    while True:
-        i, r = divmod(s, 4)
-        is_entry[s] = 1
-        out = 4 * i + (r + 2) % 4
-        is_entry[out] = 2
-        s = tw[out]
-        if s == start:
-            return
-
-
-def _best_code(pd, slots: list[int]):
+def _best_code(pd, slots: list[int], prune: bool = True):
     """(code, entries) minimal over all starts in ``slots`` (one piece)."""
     tw = _twins(pd)
+    comp, ref = _reference(tw)
     best = best_entries = None
     skip: set[int] = set()
     seen: list[int] = []
     for st in slots:
         if st in skip:
             continue
-        code, entries, status = _walk(tw, st, best)
+        code, entries, status = _walk(tw, comp, ref, st, best)
         if status < 0:
             best, best_entries = code, entries
-        elif status == 0:
+        elif status == 0 and prune:
             _skip_by_automorphism(best_entries, entries, seen + [st], skip)
         seen.append(st)
         skip.add(st)
@@ -228,8 +239,12 @@ def _relabelled(pd, entries) -> list[tuple[int, int, int, int]]:
     return out
 
 
-def canonical_pd(diagram: Diagram) -> tuple[list[list[tuple[int, int, int, int]]], int]:
-    """(canonical PD code of each piece, sorted; number of free loops)."""
+def canonical_pd(diagram: Diagram, *, prune: bool = True) -> tuple[list[list[tuple[int, int, int, int]]], int]:
+    """(canonical PD code of each piece, sorted; number of free loops).
+
+    ``prune=False`` switches the automorphism pruning off (same result, slower on
+    symmetric diagrams; used by the benchmark and the tests).
+    """
     pd = diagram.pd
     turned = turn_over_pd(diagram) if pd else []
     pieces = []
@@ -238,8 +253,8 @@ def canonical_pd(diagram: Diagram) -> tuple[list[list[tuple[int, int, int, int]]
         sub = [pd[i] for i in piece]
         sub_t = [turned[i] for i in piece]
         slots = [4 * local[i] + r for i in piece for r in range(4)]
-        c1, e1 = _best_code(sub, slots)
-        c2, e2 = _best_code(sub_t, slots)
+        c1, e1 = _best_code(sub, slots, prune)
+        c2, e2 = _best_code(sub_t, slots, prune)
         if c2 < c1:
             pieces.append((c2, _relabelled(sub_t, e2)))
         else:

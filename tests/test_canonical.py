@@ -124,3 +124,11 @@ def test_random_braid_closures_survive_rewriting(word, seed):
     if d.n_crossings == 0:
         return
     assert diagram_id(represent(d, random.Random(seed))) == diagram_id(d)
+
+
+@pytest.mark.parametrize("name", ["torus:3,7", "torus:2,9", "pretzel:3,3,3,3", "braid:1,-2,1,-2,1,-2",
+                                  "conway:2 2 2 2", "torus:4,4"])
+def test_automorphism_pruning_does_not_change_the_result(name):
+    from pipeline.canonical import canonical_pd
+    d = parse(name)
+    assert canonical_pd(d, prune=True) == canonical_pd(d, prune=False)
