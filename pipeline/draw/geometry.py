@@ -18,7 +18,9 @@ Construction, for each connected piece of the diagram:
    crossing) does not pinch the drawing.
 3. The largest face is the outer face; its ring is pinned, counterclockwise in face-walk
    order, on the unit circle, and every other vertex is placed at the average of its
-   neighbours (Tutte's barycentric embedding, one sparse linear solve).
+   neighbours (Tutte's barycentric embedding, one sparse linear solve).  Three more solves
+   with weights proportional to the current edge lengths give crowded inner regions more
+   room (positive weights keep the drawing planar, ref. 2).
 4. Each edge is drawn as a cubic Hermite curve through its four points.  At a crossing the
    tangent of the strand ``a -> c`` is the direction of ``u_c - u_a`` and that of ``b -> d``
    is ``u_d - u_b`` (``u_s`` the unit vector towards slot ``s``), so the drawn strands leave
@@ -30,7 +32,10 @@ References
 ----------
 1. W. T. Tutte, "How to draw a graph", Proc. London Math. Soc. (3) 13 (1963) 743-767:
    barycentric embedding of a 3-connected planar graph with a convex outer face.
-2. L. H. Kauffman, "State models and the Jones polynomial", Topology 26 (1987): a link
+2. S. J. Gortler, C. Gotsman, D. Thurston, "Discrete one-forms on meshes and applications
+   to 3D mesh parameterization", Computer Aided Geometric Design 23 (2006) 83-112: the
+   barycentric embedding stays planar for any positive edge weights (from memory).
+3. L. H. Kauffman, "State models and the Jones polynomial", Topology 26 (1987): a link
    diagram as a 4-valent plane graph with over/under information at the vertices.
 """
 
@@ -44,6 +49,7 @@ from ..diagram import Diagram, Slot
 __all__ = ["layout", "stray_intersections"]
 
 _SAMPLES = 8  # points per Hermite segment (three segments per edge)
+_REWEIGHT_ROUNDS = 3  # Tutte solves with length-proportional weights after the first
 
 
 # ----------------------------------------------------------------------------- embedding
@@ -92,28 +98,41 @@ def _piece_positions(diagram: Diagram, piece: list[int]) -> dict[Any, tuple[floa
             centre = counter
             counter += 1
             edges += [(centre, q) for q in ring]
-    n = counter
+    pos = _tutte(counter, edges, [1.0] * len(edges), pinned)
+    for _ in range(_REWEIGHT_ROUNDS):
+        # any positive weights keep the embedding planar (ref. 2); stiffening long
+        # edges gives the crowded inner regions of a plain Tutte drawing more room
+        lengths = np.hypot(*(pos[[a for a, _ in edges]] - pos[[b for _, b in edges]]).T)
+        mean = float(lengths.mean()) or 1.0
+        pos = _tutte(counter, edges, list(np.maximum(lengths / mean, 1e-3)), pinned)
+    return {key: (float(pos[v, 0]), float(pos[v, 1])) for key, v in index.items()}
+
+
+def _tutte(n: int, edges: list[tuple[int, int]], weights: list[float],
+           pinned: dict[int, tuple[float, float]]):
+    """Positions (n x 2 array) with every free vertex at the weighted mean of its neighbours."""
+    import numpy as np
+
     free = [v for v in range(n) if v not in pinned]
     pos_free = {v: k for k, v in enumerate(free)}
-    deg = [0] * n
-    for a, b in edges:
-        deg[a] += 1
-        deg[b] += 1
+    diag = [0.0] * n
     rows, cols, vals = [], [], []
     rhs = np.zeros((len(free), 2))
+    for (a, b), w in zip(edges, weights):
+        diag[a] += w
+        diag[b] += w
+        for u, x in ((a, b), (b, a)):
+            if u in pos_free:
+                if x in pos_free:
+                    rows.append(pos_free[u])
+                    cols.append(pos_free[x])
+                    vals.append(-w)
+                else:
+                    rhs[pos_free[u]] += w * np.asarray(pinned[x])
     for k, v in enumerate(free):
         rows.append(k)
         cols.append(k)
-        vals.append(float(deg[v]))
-    for a, b in edges:
-        for u, w in ((a, b), (b, a)):
-            if u in pos_free:
-                if w in pos_free:
-                    rows.append(pos_free[u])
-                    cols.append(pos_free[w])
-                    vals.append(-1.0)
-                else:
-                    rhs[pos_free[u]] += pinned[w]
+        vals.append(diag[v])
     try:
         from scipy.sparse import csr_matrix
         from scipy.sparse.linalg import spsolve
@@ -124,11 +143,11 @@ def _piece_positions(diagram: Diagram, piece: list[int]) -> dict[Any, tuple[floa
         for r, c, v in zip(rows, cols, vals):
             A[r, c] += v
         sol = np.linalg.solve(A, rhs)
-    sol = np.asarray(sol).reshape(len(free), 2)
-    out = {}
-    for key, v in index.items():
-        out[key] = (float(sol[pos_free[v], 0]), float(sol[pos_free[v], 1]))
-    return out
+    pos = np.zeros((n, 2))
+    pos[free] = np.asarray(sol).reshape(len(free), 2)
+    for v, xy in pinned.items():
+        pos[v] = xy
+    return pos
 
 
 # ----------------------------------------------------------------------------- curves
