@@ -194,6 +194,17 @@ def test_drawn_over_strand_and_sign_match_the_pd(diagram):
         assert sign == diagram.signs[i]
 
 
+@pytest.mark.parametrize("diagram", DIAGRAMS)
+def test_edges_run_along_the_orientation(diagram):
+    """Each drawn edge ends where the next edge of its component starts, straight across."""
+    geo = layout(diagram)
+    for comp in diagram.components:
+        for v, w in zip(comp, comp[1:] + comp[:1]):
+            (j, t), (k, u) = geo["edges"][v]["head"], geo["edges"][w]["tail"]
+            assert j == k and u == (t + 2) % 4
+            assert geo["edges"][v]["points"][-1] == geo["edges"][w]["points"][0] == geo["crossings"][j]
+
+
 def test_positive_trefoil_is_drawn_right_handed():
     # DESIGN.md pin: torus:2,3 is the positive trefoil, writhe +3; the drawn crossings
     # must all be positive by the right-hand rule, and those of its mirror negative.

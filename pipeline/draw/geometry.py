@@ -272,9 +272,12 @@ def _overlap_beyond(p, q, r, s) -> bool:
 
 # ----------------------------------------------------------------------------- layout
 def _head_slots(diagram: Diagram) -> set[Slot]:
-    """Slots at which an edge enters its crossing (orientation from the diagram's walk)."""
-    paths, _ = diagram._traversal  # the diagram's own orientation walk
-    return {slot for path in paths for slot in path}
+    """Slots at which an edge enters its crossing: ``a``, and ``d`` (positive) or ``b`` (negative).
+
+    By the PD convention the under-strand enters at ``a`` and the over-strand runs
+    ``d -> b`` at a positive crossing and ``b -> d`` at a negative one.
+    """
+    return {slot for i, sign in enumerate(diagram.signs) for slot in ((i, 0), (i, 3 if sign > 0 else 1))}
 
 
 def layout(diagram: Diagram) -> dict:
