@@ -351,6 +351,7 @@ def build_knots_table(rows: list[dict]) -> list[dict]:
     """
     groups: dict[str, list[dict]] = {}
     info: dict[int, dict] = {}
+    rows = [_stored_row(r) for r in rows]
     for r in rows:
         k = r.get("knot_key")
         meta = r if k is not None else {**r, **knot_key(r)}
@@ -410,6 +411,25 @@ def build_knots_table(rows: list[dict]) -> list[dict]:
             shared |= fp_of_key.get(f, set())
         shared.discard(row["knot_key"])
         row["fingerprint_shared_with"] = sorted(shared)
+    return out
+
+
+def _stored_row(row: dict) -> dict:
+    """A diagrams-table row read back from the store, with the knot_key fields that the
+    worker put under ``extras['knot']`` and the determinant from ``determinant_text``."""
+    out = dict(row)
+    extras = row.get("extras")
+    if isinstance(extras, str) and extras:
+        try:
+            knot = json.loads(extras).get("knot") or {}
+        except (ValueError, AttributeError):
+            knot = {}
+        for k, v in knot.items():
+            out.setdefault(k, v)
+    if out.get("determinant") is None and out.get("determinant_text"):
+        out["determinant"] = int(out["determinant_text"])
+    if out.get("proof") is None and out.get("knot_proof") is not None:
+        out["proof"] = out["knot_proof"]
     return out
 
 

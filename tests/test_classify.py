@@ -356,3 +356,57 @@ def test_equal_keys_imply_equal_invariants_on_a_census():
     table = build_knots_table(rows)                 # raises on any conflict
     assert sum(t["n_diagrams"] for t in table) == len(rows)
     assert all(t["proof"] == "normal form" for t in table)
+
+
+def test_knots_table_reads_rows_as_stored_by_the_worker():
+    # the worker stores invariant factors as text, Jones as JSON text, the knot fields in extras
+    import json
+    rows = []
+    for i, n in enumerate(["rational:7/2", "rational:7/4", "torus:2,3"]):
+        d = parse(n)
+        r = _row(i, n, d)
+        k = knot_key(r)
+        stored = {"row_id": i, "notation": n, "crossings": d.n_crossings, "components": 1,
+                  "determinant": None, "determinant_text": str(r["determinant"]),
+                  "invariant_factors": [str(x) for x in r["invariant_factors"]],
+                  "jones": json.dumps(r["jones"].to_json()), "knot_key": k["knot_key"],
+                  "mirror_key": k["mirror_key"], "knot_proof": k["proof"],
+                  "extras": json.dumps({"knot": {x: k[x] for x in ("amphichiral", "amphichiral_reason",
+                                                                   "crossing_number", "crossing_number_source",
+                                                                   "fingerprint")}})}
+        rows.append(stored)
+    table = {t["knot_key"]: t for t in build_knots_table(rows)}
+    t = table[key("rational:7/2")]
+    assert t["n_diagrams"] == 2 and t["proof"] == "normal form" and t["crossing_number"] == 5
+    assert t["amphichiral"] is False
+    rows[1]["determinant_text"] = "9"
+    with pytest.raises(KeyConflictError):
+        build_knots_table(rows)
+
+
+def test_montesinos_keys_are_invariant_under_isotopies_and_match_jones():
+    # Moving an integer between tangles (f_i + n, f_j − n), rotating and reversing the order
+    # are isotopies (Montesinos 1973; Burde-Zieschang ch. 12): same key, same Jones.
+    # Amphichiral keys must have symmetric Jones; different e0 or orders give different keys.
+    rng = random.Random(11)
+    checked = 0
+    for _ in range(40):
+        fr = [Fraction(rng.choice([1, -1, 2, -2, 3]), rng.choice([2, 3, 5])) for _ in range(3)]
+        fr = [f for f in fr if f.denominator > 1]
+        if len(fr) < 3:
+            continue
+        n = rng.choice([1, -1, 2])
+        moved = [fr[0] + n, fr[1] - n, fr[2]]
+        variants = [moved, moved[::-1], moved[1:] + moved[:1]]
+        base = montesinos_nf(fr)
+        d = parse("montesinos:" + ",".join(f"{f.numerator}/{f.denominator}" for f in fr))
+        for v in variants:
+            assert montesinos_nf(v).key == base.key
+            dv = parse("montesinos:" + ",".join(f"{f.numerator}/{f.denominator}" for f in v))
+            assert jones_set(dv) == jones_set(d)
+        if d.n_components == 1 and base.amphichiral:
+            assert jones_polynomial(d).is_symmetric()
+        checked += 1
+        shifted = montesinos_nf([fr[0] + 1, fr[1], fr[2]])        # e0 changes by 1
+        assert shifted.key != base.key
+    assert checked > 20
