@@ -15,7 +15,7 @@ determinant_odd               knots       det is odd                            
 alexander_at_one              knots       Δ(1) = 1                                         Conway 1970 normalisation
 alexander_symmetric           all         Δ(1/t) = (−1)^(c−1) Δ(t)                         Conway 1970; Kauffman 1981
 alexander_det                 all         |Δ(−1)| = det                                    Jones 1985; Goeritz 1933
-alexander_signed_det          all         Δ(−1) = i^(−σ) · det   (t^½ = i)                 common practice, via Δ = det(t^½V − t^−½Vᵀ)
+alexander_signed_det          all         Δ(−1) = i^(−σ) · det   (t^½ = i)                 common practice (Seifert matrix; see below)
 conway_at_zero                all         ∇(0) = 1 for knots, 0 for links                  Conway 1970
 conway_alexander_agree        all         Δ(t) = ∇(t^½ − t^−½)                             Conway 1970
 jones_at_one                  all         V(1) = (−2)^(c−1)                                common practice
@@ -37,6 +37,16 @@ signature_parity              all         σ + nullity ≡ c − 1 (mod 2)      
 nullity_zero_factors          all         nullity = number of zero invariant factors       common practice (b₁ of Σ₂)
 goeritz_det                   all         |det Goeritz| = det                              Goeritz 1933; Gordon–Litherland 1978
 ============================  ==========  ===============================================  ======================================
+
+The signed relations.  Take a Seifert matrix V of size m = 2g + c − 1 with
+V_ij = lk(a_i, a_j⁺), so σ = sign(V + Vᵀ) (the positive trefoil has σ = −2) and the
+Conway-normalised polynomial is Δ(t) = det(t^−½V − t^½Vᵀ) (this orientation of the
+formula gives ∇ = z for the positive Hopf link, V = (−1)).  At t^½ = i,
+Δ(−1) = det(−i(V + Vᵀ)) = (−i)^m (−1)^{(m−σ)/2} det when det ≠ 0, which simplifies
+to i^(−σ)·det; both sides vanish when det = 0.  Jones' identity V_L(t) at t^½ = i
+equals ∇(−2i) = (−1)^(c−1) ∇(2i) (from the two skein relations), giving the Jones
+form.  For knots both reduce to Δ(−1) = V(−1) = (−1)^{σ/2}·det.  The tests check
+these on hundreds of knots and links against independent implementations.
 
 Roots of unity are handled exactly: a Laurent polynomial in s = t^½ is evaluated at
 s = ζ_m^k by reducing Σ c_j x^{(j·k) mod m} modulo the cyclotomic polynomial Φ_m with
