@@ -119,7 +119,7 @@ def compute_all(diagram: Diagram, *, max_modulus: int = 16, jones_budget: Option
     chirality = _optional_module("chirality")
     row["chirality"], row["chirality_reason"] = "unknown", "not computed"
     if chirality is not None:
-        verdict = _attempt(problems, timings, "chirality", lambda: chirality.chirality(diagram, row))
+        verdict = _attempt(problems, timings, "chirality", lambda: chirality.chirality(diagram, row, budget=jones_budget))
         if verdict is not None:
             row["chirality"], row["chirality_reason"] = verdict
 
