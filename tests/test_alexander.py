@@ -385,3 +385,18 @@ def test_signed_alexander_at_minus_one_matches_signature(sw):
     value = at_minus_one(alexander_polynomial(d))
     unit = [(1, 0), (0, 1), (-1, 0), (0, -1)][-sigma % 4]   # i^(−σ)
     assert value == (unit[0] * det, unit[1] * det)
+
+
+@settings(max_examples=30, deadline=None)
+@given(braid_words(12))
+@example((3, [1, 1, 2, 2, 1, -2]))
+def test_linking_cofactor_sign_agrees_with_skein_sign(sw):
+    # the two ways the sign of a link's Δ is fixed must agree: the lowest Conway coefficient
+    # (Hosokawa 1958; Hoste 1985) and the skein relation alone (Conway 1970)
+    from pipeline.invariants.alexander import _sign_by_skein, _unsigned_delta
+    strands, word = sw
+    d = braid.diagram(word, strands=strands)
+    assume(d.n_components > 1)
+    delta = _unsigned_delta(d)
+    assume(bool(delta))
+    assert _sign_by_skein(d, delta) == alexander_polynomial(d)
