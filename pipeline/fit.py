@@ -13,7 +13,8 @@ Since |Q| is not a polynomial (the pretzel determinant |p1p2 + p2p3 + p1p3|), wh
 polynomial fits, the square of the target is fitted at degrees 0..2D; an exact fit that
 factors as c·Q² (sympy's ``factor_list``) is reported as |Q| and re-verified row by row.
 
-``--by-parity`` fits each parity class of the parameters separately (the torus knot
+``--by-sign`` likewise fits each sign class (|p| is p or -p there: the crossing
+number of a pretzel diagram is |p1| + |p2| + |p3|).  ``--by-parity`` fits each parity class of the parameters separately (the torus knot
 determinant is q for p even, p for q even and 1 for p, q both odd; Rolfsen, *Knots and
 Links*, ch. 7).  When the best polynomial of a class fails on a few rows it is still
 printed with its support and the failing rows (a robust refit ignores the failing
@@ -285,14 +286,14 @@ def _fit_class(label: str, names: list, infos: list, points: list, values: list,
 
 
 def fit_family(census: Census | str | Path, family: str, target: str, *, max_degree: int = 3,
-               by_parity: bool = False, where: Optional[str] = None) -> tuple[list[str], list[ClassFit], int]:
+               by_parity: bool = False, by_sign: bool = False, where: Optional[str] = None) -> tuple[list[str], list[ClassFit], int]:
     """Fit ``target`` over the integer parameters of ``family``.
 
     Returns
     -------
     (names, classes, skipped)
-        Parameter names, one :class:`ClassFit` per parity class (one class "all rows"
-        without ``by_parity``), and the number of rows skipped (target null or a
+        Parameter names, one :class:`ClassFit` per parity class and/or sign class of
+        the parameters (one class "all rows" without ``by_parity``/``by_sign``), and the number of rows skipped (target null or a
         non-integer parameter).
 
     Raises
@@ -335,7 +336,8 @@ def fit_family(census: Census | str | Path, family: str, target: str, *, max_deg
         if isinstance(value, bool) or not isinstance(value, int):
             raise ClaimError(f"--target must be an integer, got {value!r} on row {info['row_id']}")
         point = tuple(params[n] for n in names)
-        key = tuple(x % 2 for x in point) if by_parity else ()
+        key = (tuple(x % 2 for x in point) if by_parity else ()) + (
+            tuple((x > 0) - (x < 0) for x in point) if by_sign else ())
         infos, points, values = classes[key]
         infos.append(info)
         points.append(point)
@@ -343,9 +345,20 @@ def fit_family(census: Census | str | Path, family: str, target: str, *, max_deg
     out = []
     for key in sorted(classes):
         infos, points, values = classes[key]
-        label = ", ".join(f"{n} {'odd' if b else 'even'}" for n, b in zip(names, key)) if by_parity else "all rows"
+        label = _class_label(names, key, by_parity, by_sign)
         out.append(_fit_class(label, names, infos, points, values, max_degree))
     return names, out, skipped
+
+
+def _class_label(names: list, key: tuple, by_parity: bool, by_sign: bool) -> str:
+    parts = []
+    k = len(names)
+    if by_parity:
+        parts += [f"{n} {'odd' if b else 'even'}" for n, b in zip(names, key[:k])]
+    if by_sign:
+        signs = key[k:] if by_parity else key
+        parts += [f"{n} {'>' if s > 0 else '<' if s < 0 else '='} 0" for n, s in zip(names, signs)]
+    return ", ".join(parts) or "all rows"
 
 
 def format_fits(family: str, target: str, names: list, classes: list, skipped: int, *, limit: int = 10) -> str:
@@ -385,6 +398,8 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
     parser.add_argument("--max-degree", type=int, default=3, metavar="D",
                         help="largest total degree tried (default 3; squares up to 2D)")
     parser.add_argument("--by-parity", action="store_true", help="fit each parity class of the parameters")
+    parser.add_argument("--by-sign", action="store_true",
+                        help="fit each sign class of the parameters (e.g. crossings = |p1| + |p2| + |p3|)")
     parser.add_argument("--where", metavar="EXPR", help="only rows where this expression is true")
     parser.add_argument("--limit", type=int, default=10, metavar="N", help="failing rows to list (default 10)")
 
@@ -394,6 +409,7 @@ def main(args: argparse.Namespace) -> int:
         raise QueryError(f"fit: --max-degree {args.max_degree} out of range (0..8)")
     names, classes, skipped = fit_family(args.directory, args.family, args.target,
                                          max_degree=args.max_degree, by_parity=args.by_parity,
+                                         by_sign=args.by_sign,
                                          where=args.where)
     sys.stdout.write(format_fits(args.family, args.target, names, classes, skipped, limit=args.limit))
     return 0 if all(c.exact for c in classes) else 1

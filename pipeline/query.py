@@ -181,7 +181,7 @@ def format_result(names: Sequence[str], rows: Sequence[tuple], fmt: str = "table
         return "\n".join(lines) + "\n"
     if fmt != "table":
         raise QueryError(f"unknown format {fmt!r} (formats: {', '.join(FORMATS)})")
-    cells = [[_text(v) for v in row] for row in rows]
+    cells = [[_text(v).replace("\r", "\\r").replace("\n", "\\n") for v in row] for row in rows]
     widths = [max([len(n)] + [len(r[i]) for r in cells]) for i, n in enumerate(names)]
     right = [all(isinstance(_plain(r[i]), int) or r[i] is None for r in rows) for i in range(len(names))]
 

@@ -102,3 +102,19 @@ def test_fit_is_not_claimed_exact_when_underdetermined():
     # 3 points, a degree-2 polynomial in one variable has 3 unknowns: interpolation, not evidence
     fit = fit_polynomial([(1,), (2,), (3,)], [1, 8, 27], ["n"], max_degree=2)
     assert not fit.exact
+
+
+def test_fit_by_sign_finds_pretzel_crossings_as_sum_of_absolute_values(census):
+    # the standard pretzel diagram has |p1| + |p2| + |p3| crossings (common practice)
+    names, classes, _ = fit_family(census, "pretzel", "crossings", by_sign=True)
+    assert len(classes) == 8 and all(c.exact for c in classes)
+    p = sympy.symbols("p1 p2 p3")
+    for c in classes:
+        signs = [1 if f"{n} > 0" in c.label else -1 for n in names]
+        assert sympy.expand(c.fit.expr() - sum(s * x for s, x in zip(signs, p))) == 0, c.label
+
+
+def test_fit_torus_crossings_is_the_braid_length(census):
+    # T(p,q) as the closure of (s1...s_{p-1})^q has (p-1)q crossings (DESIGN.md torus notation)
+    _, (c,), _ = fit_family(census, "torus", "crossings")
+    assert c.exact and sympy.expand(c.fit.expr() - _sym("(p - 1)*q")) == 0
