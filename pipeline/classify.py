@@ -405,13 +405,41 @@ def build_knots_table(rows: list[dict]) -> list[dict]:
             "crossing_number_source": src,
             "_fps": fps,
         })
+    proofs = {r["knot_key"]: r["proof"] for r in out}
     for row in out:
         shared = set()
         for f in row.pop("_fps"):
             shared |= fp_of_key.get(f, set())
         shared.discard(row["knot_key"])
         row["fingerprint_shared_with"] = sorted(shared)
+        row["distinctness_note"] = _distinctness_note(row, sorted(shared), proofs)
     return out
+
+
+def _family_of_key(k: str) -> str:
+    fam = k.split(":", 1)[0]
+    return "two-bridge/torus" if fam in ("2b", "torus") else fam
+
+
+def _distinctness_note(row: dict, shared: list[str], proofs: dict[str, str]) -> Optional[str]:
+    """Why this key is (or is not known to be) different from keys with the same invariants."""
+    if not shared:
+        return None
+    if row["proof"] != "normal form":
+        return "possibly the same type as " + ", ".join(shared) + " (same invariants, no normal form)"
+    fp_only = [k for k in shared if proofs.get(k) != "normal form"]
+    same = [k for k in shared if k not in fp_only and _family_of_key(k) == _family_of_key(row["knot_key"])]
+    other = [k for k in shared if k not in fp_only and k not in same]
+    parts = []
+    if same:
+        parts.append("distinct from " + ", ".join(same) + " by the classification theorem "
+                     "(these invariants cannot separate them, e.g. mutants)")
+    if other:
+        parts.append("distinctness from " + ", ".join(other) + " not proven (same invariants, "
+                     "normal forms of different families; only the coincidences of REFERENCES item 5 are known)")
+    if fp_only:
+        parts.append("possibly the same type as " + ", ".join(fp_only) + " (fingerprint-only rows)")
+    return "; ".join(parts)
 
 
 def _stored_row(row: dict) -> dict:

@@ -10,8 +10,10 @@ Key syntax (our own)
 ``torus:2,n`` / ``torus:-2,n`` for T(2,n), n ≥ 2); ``2b:α/β`` (two-bridge, 0 < β < α,
 β the smaller of β, β⁻¹ mod α); ``mont:e0:r1,...,rk`` (Montesinos, e0 the sum of the
 tangle fractions, r_i the fractions mod 1 in the dihedrally smallest cyclic order);
-``sum:K1#K2#...`` (connected sum of knots, summands sorted); ``chain:G0|L1|G1|...``
-(a linear chain of two-bridge summands with link summands L_i and knot groups G_i);
+``sum:K1#K2#...`` (connected sum of knots, summands sorted); ``chain:G0~L1~G1~...``
+(a linear chain of two-bridge summands: link summands L_i joining components whose
+knot summands G_i are listed as K1#K2, or ``O`` for an unknotted component; the chain
+is read in the smaller of its two directions);
 ``split:A + B + ...`` (split union, pieces sorted).
 
 Conventions of this code base (pinned in DESIGN.md and verified with the Jones
@@ -191,10 +193,10 @@ def connected_sum_nf(summands: Sequence[NormalForm]) -> NormalForm:
             return "sum:" + "#".join(sorted(groups[0]))
         fwd = []
         for g, l in zip(groups, links + [None]):
-            fwd.append("#".join(sorted(g)))
+            fwd.append("#".join(sorted(g)) or "O")
             if l is not None:
                 fwd.append(l)
-        return "chain:" + min("|".join(fwd), "|".join(fwd[::-1]))
+        return "chain:" + min("~".join(fwd), "~".join(fwd[::-1]))
 
     comps = 1 + sum(s.components - 1 for s in parts)
     cn = None

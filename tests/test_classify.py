@@ -410,3 +410,19 @@ def test_montesinos_keys_are_invariant_under_isotopies_and_match_jones():
         shifted = montesinos_nf([fr[0] + 1, fr[1], fr[2]])        # e0 changes by 1
         assert shifted.key != base.key
     assert checked > 20
+
+
+def test_distinctness_notes():
+    rows = [_row(i, n) for i, n in enumerate(["pretzel:2,3,3,5", "pretzel:2,3,5,3", "torus:3,3", "pretzel:2,2,-2"])]
+    t = parse("torus:2,3")
+    rows.append(_row(4, t.to_notation(), t))
+    rows.append(_row(5, "torus:2,3"))
+    for r in rows:
+        r.update(knot_key(r))
+    table = {x["knot_key"]: x for x in build_knots_table(rows)}
+    assert "by the classification theorem" in table[key("pretzel:2,3,3,5")]["distinctness_note"]
+    # same invariants as T(3,3) (all orientations): not claimed either way
+    assert table[key("pretzel:2,2,-2")]["fingerprint_shared_with"] == ["torus:3,3"]
+    assert "not proven" in table["torus:3,3"]["distinctness_note"]
+    fp = knot_key(rows[4])["knot_key"]
+    assert table[fp]["distinctness_note"].startswith("possibly the same type as torus:2,3")
