@@ -228,13 +228,14 @@ def stray_intersections(polylines: dict[Any, list[tuple[float, float]]],
     xs = [c for s in segs for c in (s[2][0], s[3][0])]
     ys = [c for s in segs for c in (s[2][1], s[3][1])]
     span = max(max(xs) - min(xs), max(ys) - min(ys), 1e-9)
-    cell = span / max(1.0, math.sqrt(len(segs)))
+    cell = span / max(1.0, 2.0 * math.sqrt(len(segs)))
     x0, y0 = min(xs), min(ys)
     grid: dict[tuple[int, int], list[int]] = {}
     for n, (_, _, p, q) in enumerate(segs):
         for gx in range(int((min(p[0], q[0]) - x0) / cell), int((max(p[0], q[0]) - x0) / cell) + 1):
             for gy in range(int((min(p[1], q[1]) - y0) / cell), int((max(p[1], q[1]) - y0) / cell) + 1):
                 grid.setdefault((gx, gy), []).append(n)
+    boxes = [(min(p[0], q[0]), min(p[1], q[1]), max(p[0], q[0]), max(p[1], q[1])) for _, _, p, q in segs]
     bad, seen = set(), set()
     for bucket in grid.values():
         for a in range(len(bucket)):
@@ -243,6 +244,9 @@ def stray_intersections(polylines: dict[Any, list[tuple[float, float]]],
                 if (m, n) in seen:
                     continue
                 seen.add((m, n))
+                bm, bn = boxes[m], boxes[n]
+                if bm[0] > bn[2] or bn[0] > bm[2] or bm[1] > bn[3] or bn[1] > bm[3]:
+                    continue  # bounding boxes apart
                 k1, i1, p, q = segs[m]
                 k2, i2, r, s = segs[n]
                 if k1 == k2 and abs(i1 - i2) == 1:
