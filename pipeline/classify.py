@@ -387,6 +387,9 @@ def build_knots_table(rows: list[dict]) -> list[dict]:
             raise KeyConflictError(f"knot key {key!r}: rows disagree on amphichirality")
         reasons = [m.get("amphichiral_reason") for m in metas if m.get("amphichiral") is not None]
         crossings = [r.get("crossings") for r in members if r.get("crossings") is not None]
+        if cn is not None and crossings and int(cn) > min(crossings):
+            raise KeyConflictError(f"knot key {key!r}: certified crossing number {cn} exceeds the "
+                                   f"{min(crossings)} crossings of a diagram of it")
         did = {r.get("diagram_id") for r in members if r.get("diagram_id")}
         fps = {m.get("fingerprint") for m in metas if m.get("fingerprint")}
         for f in fps:
