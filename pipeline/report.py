@@ -161,6 +161,14 @@ def _knot_types(c: Census, blocks: list, plots: Path) -> None:
     total = len({_plain(k) for k in keys if _plain(k) is not None})
     rows.append(["all families", len(d), total])
     blocks.append(("table", ["family", "diagrams", "distinct knot keys"], rows))
+    k = c.knots
+    if len(k) and "proof" in k.columns:
+        proofs = Counter(str(_plain(v)) for v in k["proof"].tolist())
+        amph = Counter(str(_plain(v)) for v in k["amphichiral"].tolist()) if "amphichiral" in k.columns else Counter()
+        blocks.append(("p", f"knots table: {len(k)} knot types; proof: "
+                            + ", ".join(f"{p} {n}" for p, n in sorted(proofs.items()))
+                            + ("; amphichiral: " + ", ".join(f"{a} {n}" for a, n in sorted(amph.items())) if amph else "")
+                            + "."))
     shared = sorted((k, sorted(fs)) for k, fs in across.items() if len(fs) > 1)
     blocks.append(("p", f"{len(shared)} knot keys occur in more than one family"
                         + (": " + "; ".join(f"{k} ({', '.join(fs)})" for k, fs in shared[:MAX_LISTED]) if shared else ".")))
