@@ -339,9 +339,15 @@ def test_png_is_a_valid_image(tmp_path):
     assert img[..., :3].std() > 0.01  # something was drawn
 
 
-def test_bad_suffix_is_an_error(tmp_path):
-    with pytest.raises(KnotLedgerError, match=r"must end in \.svg or \.png"):
-        draw_diagram(parse("torus:2,3"), tmp_path / "x.pdf")
+@pytest.mark.parametrize("text,name,match", [
+    ("torus:2,3", "x.pdf", r"must end in \.svg or \.png"),
+    ("torus:2,3", "missing/x.svg", r"directory .* does not exist"),
+    ("torus:2,2001", "x.svg", r"2001 crossings is more than a picture can show \(limit 2000\)"),
+], ids=["suffix", "directory", "too-large"])
+def test_bad_output_or_size_is_a_one_line_error(tmp_path, text, name, match):
+    with pytest.raises(KnotLedgerError, match=match):
+        draw_diagram(parse(text), tmp_path / name)
+    assert not (tmp_path / name).exists()
 
 
 def test_command_writes_the_file_and_reports_bad_input_in_one_line(tmp_path, capsys):

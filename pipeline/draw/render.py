@@ -30,6 +30,8 @@ __all__ = ["draw_diagram", "witness_for_picture", "residue_palette"]
 #: Okabe-Ito colours (black left out: it is the casing colour), ordered for contrast.
 _OKABE_ITO = ["#0072B2", "#E69F00", "#009E73", "#CC79A7", "#56B4E9", "#D55E00", "#F0E442"]
 _INK = "#222222"
+#: Largest diagram drawn (beyond this the layout takes many seconds and no label is readable).
+MAX_DRAW_CROSSINGS = 2000
 
 
 def residue_palette(p: int) -> list[str]:
@@ -140,7 +142,8 @@ def draw_diagram(diagram: Diagram, path, *, coloring: Optional[int] = None, labe
     Raises
     ------
     KnotLedgerError
-        Unknown suffix, or no nontrivial colouring modulo ``coloring``.
+        Unknown suffix, missing output directory, more than ``MAX_DRAW_CROSSINGS``
+        crossings, a write failure, or no nontrivial colouring modulo ``coloring``.
 
     Examples
     --------
@@ -151,6 +154,11 @@ def draw_diagram(diagram: Diagram, path, *, coloring: Optional[int] = None, labe
     suffix = path.suffix.lower()
     if suffix not in (".svg", ".png"):
         raise KnotLedgerError(f"draw: output {str(path)!r} must end in .svg or .png")
+    if not path.parent.is_dir():
+        raise KnotLedgerError(f"draw: directory {str(path.parent)!r} of the output does not exist")
+    if diagram.n_crossings > MAX_DRAW_CROSSINGS:
+        raise KnotLedgerError(f"draw: {diagram.n_crossings} crossings is more than a picture can show "
+                              f"(limit {MAX_DRAW_CROSSINGS})")
     colours = witness_for_picture(diagram, coloring) if coloring is not None else None
     geo = _layout(diagram)
 
@@ -237,8 +245,11 @@ def draw_diagram(diagram: Diagram, path, *, coloring: Optional[int] = None, labe
             if colours is not None:
                 ax.set_title(f"Fox {coloring}-colouring: 2\u00b7over \u2261 under\u2081 + under\u2082 (mod {coloring})",
                              fontsize=fontsize + 1)
-            fig.savefig(path, format=suffix[1:], bbox_inches="tight", dpi=150,
-                        metadata={"Date": None} if suffix == ".svg" else None)
+            try:
+                fig.savefig(path, format=suffix[1:], bbox_inches="tight", dpi=150,
+                            metadata={"Date": None} if suffix == ".svg" else None)
+            except OSError as err:
+                raise KnotLedgerError(f"draw: cannot write {str(path)!r}: {err.strerror or err}") from err
         except BaseException:
             if path.exists():
                 os.remove(path)
