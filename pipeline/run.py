@@ -219,9 +219,11 @@ def build_knots(store) -> None:
         return
     from schemas.tables import KNOTS
     from .store import read_table
-    cols = [c for c in read_table(store.dir, "diagrams").column_names
-            if not c.endswith("_terms")]
-    rows = read_table(store.dir, "diagrams").select(cols).to_pylist()
+    skip = {"labels", "source", "checks", "alexander_terms", "conway_terms", "jones_terms",
+            "conway", "invariant_factors_int"}
+    table = read_table(store.dir, "diagrams")
+    rows = table.select([c for c in table.column_names if c not in skip]).to_pylist()
+    del table
     knots = []
     for k in build_knots_table(rows):
         extra = {c: v for c, v in k.items() if c not in KNOTS.names}

@@ -288,3 +288,14 @@ def test_workers_do_not_import_heavy_modules():
         mods = ex.submit(eval, "sorted(__import__('sys').modules)").result()
     assert len(res["diagrams"]) == 27
     assert not {"sympy", "pandas", "duckdb", "matplotlib", "pyarrow"} & set(mods)
+
+
+def test_knots_table_counts_every_keyed_row(reference):
+    pytest.importorskip("pipeline.classify")
+    _, c = reference
+    keyed = [r for r in c["diagrams"] if r["knot_key"] is not None]
+    assert keyed and sum(k["n_diagrams"] for k in c["knots"]) == len(keyed)
+    assert {k["knot_key"] for k in c["knots"]} == {r["knot_key"] for r in keyed}
+    # T(2,3) = b(3,1) = conway:3 (REFERENCES.md §5): one type, several diagrams
+    trefoil = {r["knot_key"] for r in keyed if r["notation"] in ("torus:2,3", "rational:3/1", "conway:3")}
+    assert len(trefoil) == 1
