@@ -84,6 +84,7 @@ def main(argv: list[str] | None = None) -> int:
     ap.add_argument("--out", default="reports/bench_jones.md")
     args = ap.parse_args(argv)
 
+    load_before = os.getloadavg()[0]
     rows, fits = [], {}
     for family, texts in FAMILIES.items():
         points, fast_points = [], []
@@ -113,6 +114,11 @@ def main(argv: list[str] | None = None) -> int:
         slow = time.perf_counter() - t0
         assert slow_value == jones_polynomial(d), text
         side.append((text, d.n_crossings, fast, slow))
+    wide = []
+    for p in range(4, 10):
+        d = parse(f"torus:{p},{p + 1}")
+        w = frontier_width(d)
+        wide.append((p, d.n_crossings, w, math.comb(w, w // 2) // (w // 2 + 1), best_time(d, 1)))
     t2 = parse("torus:2,401")
     t2_secs = best_time(t2, args.repeat)
     t2_cold = parse("torus:2,401")
@@ -126,7 +132,9 @@ def main(argv: list[str] | None = None) -> int:
         f"Script: `tests/benchmarks/bench_jones.py` (best of {args.repeat} runs per diagram, diagram "
         "built before timing). Machine: "
         f"{platform.machine()}, {os.cpu_count()} cores (shared with other jobs during the run), "
-        f"Python {platform.python_version()}, python-flint {flint.__version__}.",
+        f"Python {platform.python_version()}, python-flint {flint.__version__}; 1-minute load average "
+        f"{load_before:.1f} before and {os.getloadavg()[0]:.1f} after the run (other jobs inflate the times; "
+        "ratios within one run are the meaningful comparison).",
         "",
         "Method: Kauffman bracket by adding crossings in a greedy order that keeps the frontier short, "
         "one exact integer polynomial per planar matching of the frontier edges "
@@ -162,7 +170,35 @@ def main(argv: list[str] | None = None) -> int:
         "|---|---|---|---|---|",
     ]
     lines += [f"| `{t}` | {n} | {f * 1000:.2f} | {s * 1000:.1f} | {s / f:.0f}x |" for t, n, f, s in side]
-    lines.append("")
+    lines += [
+        "",
+        "## Frontier width: T(p, p+1), a braid closure on p strands",
+        "",
+        "The programme is polynomial for bounded frontier width and exponential in the width: "
+        "a closed braid on p strands needs 2p frontier edges, up to Catalan(p) matchings.",
+        "",
+        "| p | crossings | max frontier | Catalan(frontier/2) | time (ms) |",
+        "|---|---|---|---|---|",
+    ]
+    lines += [f"| {p} | {n} | {w} | {c} | {s * 1000:.1f} |" for p, n, w, c, s in wide]
+    lines += [
+        "",
+        "## Notes",
+        "",
+        "- On torus knots with fixed p the number of matchings is fixed, the polynomials have small "
+        "coefficients and degree O(n): the cost is dominated by Python work per crossing, close to linear.",
+        "- Two-bridge chains and P(a,a,a,a) have frontier 4 to 6, but their coefficients grow with n "
+        "(|V(−1)| = det, near 10^83 for a 400-crossing two-bridge diagram, so the largest coefficients "
+        "have a number of bits proportional to n): the output can reach order n² bits and the time cannot "
+        "stay linear there; once coefficients pass 62 bits "
+        "python-flint stores them as separate big integers, which shows as a jump between 200 and 400 "
+        "crossings.",
+        "- The tangle route (`bracket_fast.py`) does one shifted polynomial addition per half-twist and is "
+        "the faster route whenever the census knows the tangle parameters; the frontier programme stays the "
+        "general route for any diagram and is what `jones_polynomial` uses.",
+        "- Times are wall-clock on a shared machine; compare ratios within the run.",
+        "",
+    ]
     with open(args.out, "w", encoding="utf-8") as fh:
         fh.write("\n".join(lines))
     print("\n".join(lines))
