@@ -342,12 +342,27 @@ def build_knots_table(rows: list[dict]) -> list[dict]:
     rows without ``knot_key`` are keyed here.  Rows whose status is not ``ok`` are
     still counted if they have a key.
 
+    Returns
+    -------
+    list of dict
+        Sorted by key, with the DESIGN.md columns ``knot_key``, ``representative``
+        (notation of the row with fewest crossings, ties by row_id), ``n_diagrams``,
+        ``proof``, ``mirror_key``, ``amphichiral`` (True / False / None),
+        ``amphichiral_reason``, ``min_crossings_seen``, ``crossing_number``,
+        ``crossing_number_source``, and further: ``n_distinct_diagrams`` (distinct
+        ``diagram_id``), ``fingerprint_shared_with`` (other keys whose rows have the same
+        fingerprint) and ``distinctness_note`` (why those keys are, or are not known to
+        be, different types: e.g. mutants are distinct by Bonahon-Siebenmann, a
+        fingerprint-only key is "possibly the same type as" a normal-form key).
+
     Raises
     ------
     KeyConflictError
         When two rows under one key differ in an orientation-free invariant
         (components, determinant, invariant factors) or, for knots, in Alexander,
-        Jones or signature.
+        Jones or signature; when rows disagree on amphichirality or on a certified
+        crossing number; when a certified crossing number exceeds the crossing count
+        of a diagram of the type.
     """
     groups: dict[str, list[dict]] = {}
     info: dict[int, dict] = {}
