@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import json
 import re
 import shutil
 from pathlib import Path
@@ -85,3 +86,23 @@ def test_renderers_escape_cells():
     blocks = [("h", 1, "T"), ("table", ["a|b", "<x>"], [["1|2", "<script>"]])]
     assert "1\\|2" in render_markdown(blocks)
     assert "<script>" not in render_html(blocks, Path("."))
+
+
+def test_knot_collapse_counts_match_schubert_classification(report_dir):
+    # b(a, b) = b(a, b') iff b' = b^{+-1} mod a -- H. Schubert, Math. Z. 65 (1956); with
+    # 0 < b < a the classes are the pairs {b, b^-1 mod a}.
+    from math import gcd
+    c = open_census(report_dir)
+    tb = c.diagrams[c.diagrams["family"] == "two_bridge"]
+    alphas = {int(json.loads(p)["alpha"]) for p in tb["params"]}
+    classes = {(a, min(b, pow(b, -1, a))) for a in alphas for b in range(1, a) if gcd(a, b) == 1}
+    md = (report_dir / "report.md").read_text()
+    assert f"| two_bridge | {len(tb)} | {len(classes)} |" in md
+
+
+def test_report_lists_keys_shared_across_families(report_dir):
+    # T(2,n) = b(n, +-1) -- Rolfsen, Knots and Links; REFERENCES.md "Coincidences across families"
+    md = (report_dir / "report.md").read_text()
+    m = re.search(r"(\d+) knot keys occur in more than one family", md)
+    assert m and int(m.group(1)) > 0
+    assert re.search(r"\(([a-z_]+, )*torus(, [a-z_]+)*\)", md) and "two_bridge" in md
