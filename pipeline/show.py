@@ -1,0 +1,302 @@
+"""``knotledger show DIAGRAM``: every invariant of one diagram, on one page or as JSON.
+
+The readable page is laid out for checking by hand: the PD code, the arcs with their
+edge labels, the colouring matrix entry by entry (columns a1..am for the arcs and
+o1..ok for free loops, rows x1..xn for the crossings in PD order), the determinant and
+invariant factors, the colouring counts, and for each prime p dividing the
+determinant a witness p-colouring (checked at every crossing) with the fewest colours
+used by a nontrivial p-colouring of this diagram.  Whatever else
+:func:`pipeline.invariants.all.compute_all` returns (polynomials, signature,
+chirality, checks, ...) is printed after that.
+
+``--json`` prints one object (DESIGN.md, contract): at least ``crossings``,
+``components``, ``writhe``, ``determinant``, ``invariant_factors``, ``colorings``
+(modulus as a string -> count) plus every other key of the census row; polynomials
+in the ``[[exponent, coefficient], ...]`` form; every integer exact.
+"""
+
+from __future__ import annotations
+
+import argparse
+import json
+import shlex
+import sys
+from fractions import Fraction
+from math import isqrt
+from typing import Any
+
+from .diagram import Diagram
+from .invariants import coloring
+from .notation import parse
+
+__all__ = ["add_arguments", "main", "collect", "render_page", "to_json_object"]
+
+DENSE_MATRIX_COLUMNS = 40  # wider matrices are printed row by row, nonzero entries only
+MAX_MODULUS_LIMIT = 1000
+
+
+def _modulus(text: str) -> int:
+    try:
+        n = int(text)
+    except ValueError:
+        raise argparse.ArgumentTypeError(f"--max-modulus {text!r} is not an integer") from None
+    if not 2 <= n <= MAX_MODULUS_LIMIT:
+        raise argparse.ArgumentTypeError(f"--max-modulus {n} must be between 2 and {MAX_MODULUS_LIMIT}")
+    return n
+
+
+def _prime(text: str) -> int:
+    try:
+        p = int(text)
+    except ValueError:
+        raise argparse.ArgumentTypeError(f"--witness {text!r} is not an integer") from None
+    if p < 2 or p > 10**6 or any(p % q == 0 for q in range(2, isqrt(p) + 1)):
+        raise argparse.ArgumentTypeError(f"--witness {p} must be a prime below 10^6")
+    return p
+
+
+def add_arguments(parser: argparse.ArgumentParser) -> None:
+    """Register the options of ``knotledger show``."""
+    parser.add_argument("diagram", metavar="DIAGRAM", help="a diagram string KIND:ARGS, e.g. torus:2,3")
+    parser.add_argument("--json", action="store_true", help="print one JSON object instead of the page")
+    parser.add_argument("--max-modulus", type=_modulus, default=16, metavar="N",
+                        help="count colourings for n = 2..N (default 16)")
+    parser.add_argument("--witness", type=_prime, action="append", default=[], metavar="P",
+                        help="also show a witness colouring mod the prime P (repeatable)")
+
+
+# ------------------------------------------------------------------ collecting
+def collect(diagram: Diagram, *, max_modulus: int = 16, extra_primes: tuple[int, ...] = ()) -> dict:
+    """The census row of ``diagram`` (via ``compute_all`` when this build has it),
+    plus witnesses and fewest colours for ``extra_primes``."""
+    try:
+        from .invariants.all import compute_all
+    except ImportError:
+        compute_all = None
+    if compute_all is not None:
+        row = dict(compute_all(diagram, max_modulus=max_modulus))
+    else:
+        row = _colouring_row(diagram, max_modulus)
+    if row.get("determinant") is None:  # the colouring part failed; the page says so
+        return row
+    row["witnesses"] = dict(row.get("witnesses") or {})
+    row["min_colors"] = dict(row.get("min_colors") or {})
+    for p in extra_primes:
+        if p not in row["witnesses"]:
+            w = coloring.witness_coloring(diagram, p)
+            row["witnesses"][p] = None if w is None else list(w)
+            row["min_colors"][p] = None if w is None else coloring.min_colors(diagram, p)
+    return row
+
+
+def _colouring_row(diagram: Diagram, max_modulus: int) -> dict:
+    """The colouring part alone, for builds without ``compute_all``."""
+    factors = coloring.invariant_factors(diagram)
+    det = coloring.determinant(diagram)
+    counts = coloring.coloring_counts(diagram, max_modulus=max_modulus)
+    witnesses, fewest = {}, {}
+    for p in range(2, max_modulus + 1):
+        if all(p % q for q in range(2, isqrt(p) + 1)) and det % p == 0:
+            w = coloring.witness_coloring(diagram, p)
+            if w is not None:
+                witnesses[p], fewest[p] = list(w), coloring.min_colors(diagram, p)
+    return {"crossings": diagram.n_crossings, "components": diagram.n_components,
+            "free_loops": diagram.free_loops, "writhe": diagram.writhe, "determinant": det,
+            "invariant_factors": list(factors), "colorings": counts,
+            "colorable_moduli": [n for n, c in counts.items() if c > n],
+            "witnesses": witnesses, "min_colors": fewest, "status": "ok"}
+
+
+# ------------------------------------------------------------------ JSON
+def _jsonable(value: Any) -> Any:
+    if hasattr(value, "to_json"):
+        return value.to_json()
+    if isinstance(value, dict):
+        return {str(k): _jsonable(v) for k, v in value.items()}
+    if isinstance(value, (list, tuple)):
+        return [_jsonable(v) for v in value]
+    if isinstance(value, (set, frozenset)):
+        return sorted(_jsonable(v) for v in value)
+    if isinstance(value, Fraction):
+        return str(value)
+    if value is None or isinstance(value, (bool, int, float, str)):
+        return value
+    return str(value)
+
+
+def to_json_object(diagram: Diagram, notation: str, row: dict) -> dict:
+    """The ``--json`` object: notation, pd, arcs, then every key of the row (no timings)."""
+    out: dict[str, Any] = {"notation": notation, "pd": diagram.to_notation(),
+                           "arcs": [list(a) for a in diagram.arcs]}
+    factors = row.get("invariant_factors")
+    for key, value in row.items():
+        if key != "timings":
+            out[key] = _jsonable(value)
+    if factors is not None and row.get("colorings"):
+        out["generating_moduli"] = [n for n in sorted(row["colorings"])
+                                    if coloring.has_generating_coloring(factors, n)]
+    return out
+
+
+# ------------------------------------------------------------------ page
+def _poly_text(poly: Any, var: str) -> str:
+    """A Laurent polynomial as text in ``var`` (exponents may be half-integers)."""
+    terms = getattr(poly, "terms", None)
+    if terms is None:
+        return str(poly)
+    if not terms:
+        return "0"
+    parts = []
+    for k, c in terms:
+        e = Fraction(k, 2)
+        mono = "" if e == 0 else (var if e == 1 else f"{var}^{e}" if e > 0 else f"{var}^({e})")
+        mag = abs(c)
+        body = (str(mag) if mono == "" or mag != 1 else "") + mono
+        parts.append(("- " if c < 0 else "+ ") + body)
+    text = " ".join(parts)
+    return text[2:] if text.startswith("+ ") else "-" + text[2:]
+
+
+def _col_names(diagram: Diagram) -> list[str]:
+    return [f"a{k + 1}" for k in range(len(diagram.arcs))] + [f"o{k + 1}" for k in range(diagram.free_loops)]
+
+
+def _matrix_lines(diagram: Diagram) -> list[str]:
+    names = _col_names(diagram)
+    m = coloring.coloring_matrix(diagram)
+    if not m:
+        return ["  (no crossings: no rows)"]
+    rows = [f"x{i + 1}" for i in range(len(m))]
+    if len(names) <= DENSE_MATRIX_COLUMNS:
+        w = max(3, max(len(n) for n in names) + 1, max(len(str(v)) for r in m for v in r) + 1)
+        lw = max(len(r) for r in rows) + 2
+        lines = [" " * lw + "".join(n.rjust(w) for n in names)]
+        lines += [f"  {r}".ljust(lw) + "".join(str(v).rjust(w) for v in row) for r, row in zip(rows, m)]
+        return lines
+    lines = ["  (wide matrix: each row lists its nonzero entries)"]
+    for r, row in zip(rows, m):
+        terms = [f"{v:+d}·{names[c]}" for c, v in enumerate(row) if v]
+        lines.append(f"  {r}: " + (" ".join(terms) if terms else "0"))
+    return lines
+
+
+def _wrap(items: list[str], indent: str, width: int = 96) -> list[str]:
+    lines, cur = [], indent
+    for it in items:
+        if len(cur) + len(it) + 1 > width and cur.strip():
+            lines.append(cur.rstrip())
+            cur = indent
+        cur += it + " "
+    lines.append(cur.rstrip())
+    return lines
+
+
+def render_page(diagram: Diagram, notation: str, row: dict, *, max_modulus: int) -> str:
+    """The readable page of ``knotledger show``."""
+    names = _col_names(diagram)
+    out = [f"== {notation.strip()} ==", f"  {diagram.to_notation()}", ""]
+    comps = diagram.n_components
+    out.append(f"crossings {diagram.n_crossings}   components {comps}"
+               f" (free loops {diagram.free_loops})   writhe {diagram.writhe:+d}"
+               + (f"   alternating {'yes' if row.get('alternating') else 'no'}" if diagram.n_crossings else ""))
+    out += ["", "Crossings (a b c d counterclockwise from the incoming under-edge a; sign +: over runs d->b)"]
+    arc = diagram.arc_of_label
+    for i, x in enumerate(diagram.pd):
+        o = arc[diagram.over_labels(i)[0]]
+        out.append(f"  x{i + 1:<4} ({x[0]}, {x[1]}, {x[2]}, {x[3]})  {'+' if diagram.signs[i] > 0 else '-'}"
+                   f"   over {names[o]}, under {names[arc[x[0]]]} -> {names[arc[x[2]]]}")
+    out += ["", "Arcs (maximal over-strands; edge labels in orientation order)"]
+    for k, a in enumerate(diagram.arcs):
+        out.append(f"  {names[k]:<5} " + " ".join(map(str, a)))
+    for k in range(diagram.free_loops):
+        out.append(f"  o{k + 1:<4} free loop (no crossings; a zero column)")
+    out += ["", "Colouring matrix M (row x_i = 2·over - under_in - under_out)"]
+    out += _matrix_lines(diagram)
+    out.append("")
+    det, factors = row.get("determinant"), row.get("invariant_factors")
+    if det is None:
+        out.append(f"Colouring invariants not computed: {row.get('status', 'unknown reason')}")
+    else:
+        torsion = " ⊕ ".join(f"Z/{d}" if d else "Z" for d in factors)
+        out.append(f"determinant        {det}")
+        out.append(f"invariant factors  ({', '.join(map(str, factors))})"
+                   f"    coker M = Z{' ⊕ ' + torsion if torsion else ''}")
+        out += _colouring_table(row, factors)
+        out += _witness_lines(row, names, det, max_modulus)
+    out += _other_invariants(row)
+    quoted = shlex.quote(notation.strip())
+    out += ["", f"status: {row.get('status', 'ok')}",
+            f"To draw this diagram with its arcs labelled: knotledger draw {quoted} --out FILE.svg"]
+    return "\n".join(out) + "\n"
+
+
+def _colouring_table(row: dict, factors: list[int]) -> list[str]:
+    counts = row.get("colorings") or {}
+    lines = ["", "Fox colourings (col_n = n · Π gcd(n, d_i), constant colourings included)",
+             f"  {'n':>4}  {'col_n':>12}  {'non-constant':<13} generating"]
+    for n in sorted(counts):
+        c = counts[n]
+        lines.append(f"  {n:>4}  {c:>12}  {'yes' if c > n else '-':<13} "
+                     f"{'yes' if coloring.has_generating_coloring(factors, n) else '-'}")
+    return lines
+
+
+def _witness_lines(row: dict, names: list[str], det: int, max_modulus: int) -> list[str]:
+    witnesses = row.get("witnesses") or {}
+    fewest = row.get("min_colors") or {}
+    lines = ["", f"Witness colourings (each prime p <= {max_modulus} dividing det, and any asked for; "
+             "checked at every crossing)"]
+    if not witnesses:
+        lines.append("  none: no prime in range divides the determinant")
+    for p in sorted(witnesses):
+        w = witnesses[p]
+        if w is None:
+            lines.append(f"  p = {p}: no nontrivial {p}-colouring")
+            continue
+        f = fewest.get(p)
+        few = f"{f}" if f is not None else "not computed (over the min_colors budget)"
+        lines.append(f"  p = {p}: uses {len(set(w))} colours; fewest in a nontrivial {p}-colouring "
+                     f"of this diagram: {few}")
+        lines += _wrap([f"{names[k]}={c}" for k, c in enumerate(w)], "      ")
+    return lines
+
+
+def _other_invariants(row: dict) -> list[str]:
+    lines = []
+    for key, label, var in (("alexander", "Alexander  Δ(t)", "t"), ("conway", "Conway     ∇(z)", "z"),
+                            ("jones", "Jones      V(t)", "t")):
+        if key in row:
+            value = row[key]
+            lines.append(f"  {label} = {_poly_text(value, var) if value is not None else 'not computed'}")
+    for key in ("signature", "nullity"):
+        if key in row:
+            lines.append(f"  {key:<10} {row[key] if row[key] is not None else 'not computed'}")
+    if "chirality" in row:
+        reason = row.get("chirality_reason")
+        lines.append(f"  chirality  {row['chirality']}" + (f" ({reason})" if reason else ""))
+    bounds = row.get("bounds")
+    if isinstance(bounds, dict) and bounds:
+        items = [f"{k} {v}," for k, v in bounds.items()]
+        items[-1] = items[-1].rstrip(",")
+        wrapped = _wrap(items, " " * 13)
+        lines += ["  bounds     " + wrapped[0].strip()] + wrapped[1:]
+    checks = row.get("checks")
+    if isinstance(checks, dict) and checks:
+        failed = sorted(k for k, ok in checks.items() if not ok)
+        lines.append(f"  checks     {len(checks) - len(failed)} passed, {len(failed)} failed"
+                     + (": " + ", ".join(failed) if failed else ""))
+    return (["", "Other invariants"] + lines) if lines else []
+
+
+# ------------------------------------------------------------------ entry point
+def main(args: argparse.Namespace) -> int:
+    """Run ``knotledger show``; returns the exit code (0)."""
+    diagram = parse(args.diagram)
+    primes = tuple(dict.fromkeys(args.witness))
+    row = collect(diagram, max_modulus=args.max_modulus, extra_primes=primes)
+    if args.json:
+        obj = to_json_object(diagram, args.diagram.strip(), row)
+        sys.stdout.write(json.dumps(obj, ensure_ascii=False) + "\n")
+    else:
+        sys.stdout.write(render_page(diagram, args.diagram, row, max_modulus=args.max_modulus))
+    return 0

@@ -1,0 +1,97 @@
+"""Tests of ``knotledger show``: the readable page, ``--json``, and bad input."""
+
+from __future__ import annotations
+
+import json
+import subprocess
+import sys
+
+import pytest
+
+from pipeline import cli
+from pipeline.invariants.coloring import coloring_matrix
+from pipeline.notation import parse
+
+
+def _run(capsys, *argv):
+    try:
+        code = cli.main(["show", *argv])
+    except SystemExit as exc:  # argparse usage errors
+        code = exc.code
+    out, err = capsys.readouterr()
+    return code, out, err
+
+
+def test_page_prints_the_colouring_matrix_entry_by_entry(capsys):
+    code, out, err = _run(capsys, "torus:2,3")
+    assert code == 0 and err == ""
+    # The matrix rows of the page are the rows of coloring_matrix, labelled x1..x3
+    # under column headers a1..a3 (Fox 1962: 2·over − under_in − under_out).
+    lines = out.splitlines()
+    header = next(i for i, line in enumerate(lines) if line.split() == ["a1", "a2", "a3"])
+    for i, row in enumerate(coloring_matrix(parse("torus:2,3"))):
+        assert lines[header + 1 + i].split() == [f"x{i + 1}", *map(str, row)]
+    assert "determinant        3" in out
+    assert "invariant factors  (3)" in out
+    assert "p = 3:" in out and "a1=0 a2=1 a3=2" in out  # witness, normalised
+    assert "knotledger draw torus:2,3 --out FILE.svg" in out
+
+
+def test_page_colouring_table_matches_published_counts(capsys):
+    # common practice: figure-eight has 25 five-colourings and no nontrivial 3-colouring.
+    code, out, _ = _run(capsys, "conway:2 2")
+    rows = {int(line.split()[0]): line.split() for line in out.splitlines()
+            if line.strip() and line.split()[0].isdigit() and len(line.split()) == 4}
+    assert rows[5][1] == "25" and rows[5][2] == "yes"
+    assert rows[3][1] == "3" and rows[3][2] == "-"
+
+
+def test_json_for_the_trefoil(capsys):
+    code, out, err = _run(capsys, "torus:2,3", "--json")
+    assert code == 0 and err == ""
+    obj = json.loads(out)
+    assert obj["crossings"] == 3 and obj["components"] == 1 and obj["writhe"] == 3
+    assert obj["determinant"] == 3 and obj["invariant_factors"] == [3]
+    # col_n = n·gcd(n,3) (Przytycki 1998, memory): 9 three-colourings (common practice).
+    assert obj["colorings"] == {str(n): n * (3 if n % 3 == 0 else 1) for n in range(2, 17)}
+    assert all(type(v) is int for v in obj["colorings"].values())
+    assert obj["witnesses"] == {"3": [0, 1, 2]}
+    if obj.get("jones") is not None:  # DESIGN.md: positive trefoil V = t + t^3 - t^4
+        assert obj["jones"] == [[1, 1], [3, 1], [4, -1]]
+
+
+def test_json_max_modulus_and_extra_witness(capsys):
+    code, out, _ = _run(capsys, "pretzel:3,3,-3", "--json", "--max-modulus", "9", "--witness", "5")
+    obj = json.loads(out)
+    assert sorted(obj["colorings"], key=int) == [str(n) for n in range(2, 10)]
+    assert obj["colorings"]["3"] == 27  # REFERENCES.md (memory)
+    assert obj["witnesses"]["5"] is None  # det 9: no nontrivial 5-colouring
+    assert 9 not in obj["generating_moduli"] and 3 in obj["generating_moduli"]
+
+
+def test_big_determinant_stays_exact_in_json(capsys):
+    # Schubert (1956): det of the two-bridge link [2, 2, ..., 2] is its fraction's numerator.
+    terms = ["2"] * 120
+    code, out, _ = _run(capsys, "conway:" + " ".join(terms), "--json", "--max-modulus", "4")
+    obj = json.loads(out)
+    num, den = 1, 0  # α/β = 2 + 1/(2 + ...): numerator recurrence
+    for _ in terms:
+        num, den = 2 * num + den, num
+    assert obj["determinant"] == num and num > 2 ** 63
+
+
+@pytest.mark.parametrize("argv", [["torus:2,x"], ["nonsense"], ["pd:[[1,2,3]]"],
+                                  ["torus:2,3", "--max-modulus", "1"], ["torus:2,3", "--witness", "9"]])
+def test_bad_input_exits_2_with_one_line(capsys, argv):
+    code, out, err = _run(capsys, *argv)
+    assert code == 2
+    assert out == ""
+    assert len(err.strip().splitlines()) == 1 and "Traceback" not in err
+
+
+def test_bad_input_from_the_command_line_has_no_traceback():
+    proc = subprocess.run([sys.executable, "-m", "pipeline", "show", "rational:4/2"],
+                          capture_output=True, text=True)
+    assert proc.returncode == 2
+    assert proc.stdout == ""
+    assert len(proc.stderr.strip().splitlines()) == 1 and "Traceback" not in proc.stderr
