@@ -19,7 +19,8 @@ from hypothesis import strategies as st
 from pipeline.errors import BudgetExceeded, NotationError
 from pipeline.families import braid
 from pipeline.families.two_bridge import continued_fraction
-from pipeline.invariants.bracket_fast import montesinos_bracket, rational_tangle_bracket, two_bridge_bracket
+from pipeline.invariants.bracket_fast import (bracket_of_notation, montesinos_bracket, rational_tangle_bracket,
+                                             two_bridge_bracket)
 from pipeline.invariants.jones import crossing_order, jones_from_bracket, jones_polynomial, kauffman_bracket
 from pipeline.notation import parse
 from pipeline.poly import Laurent
@@ -364,6 +365,22 @@ def test_fast_routes_on_large_members():
     # a single crossing: <[1]> = A<[0]> + A^-1<[∞]> in the builder's picture (Kauffman 1987)
     f, g = rational_tangle_bracket([1])
     assert (f, g) == (Laurent({2: 1}), Laurent({-2: 1}))
+
+
+@pytest.mark.parametrize("text", [
+    "conway:3", "conway: 2 , 2", "conway:-2 3 1", "rational:3/1", "rational:17/-5", "rational:1/0", "rational:24/7",
+    "pretzel:-2,3,3", "pretzel:3,0,3", "pretzel:0,0", "pretzel:1", "montesinos:3", "montesinos:2/3, -3/5,1/2",
+    "montesinos:+1/2,-4/3", "montesinos:0/1,1/3",
+])
+def test_bracket_of_notation_matches_parse(text):
+    d = parse(text)
+    assert bracket_of_notation(text) == kauffman_bracket(d)
+    assert jones_from_bracket(bracket_of_notation(text), d.writhe) == jones_polynomial(d)
+
+
+def test_bracket_of_notation_declines_other_kinds():
+    for text in ["torus:2,3", "braid:1,1", "pd:[[1,1,2,2]]", "dt:4 6 2"]:
+        assert bracket_of_notation(text) is None
 
 
 def test_jones_from_bracket_refuses_a_wrong_writhe():

@@ -35,11 +35,15 @@ from typing import Optional, Sequence
 
 import flint
 
+import re
+
+from ..errors import NotationError
 from ..families import montesinos as _montesinos
 from ..families import two_bridge as _two_bridge
+from ..notation import _fraction, _ints, split_notation
 from ..poly import Laurent
 
-__all__ = ["rational_tangle_bracket", "two_bridge_bracket", "montesinos_bracket"]
+__all__ = ["rational_tangle_bracket", "two_bridge_bracket", "montesinos_bracket", "bracket_of_notation"]
 
 _Poly = tuple[int, flint.fmpz_poly]
 _Pair = tuple[_Poly, _Poly]
@@ -155,3 +159,42 @@ def montesinos_bracket(fractions: Sequence[Optional[Fraction]]) -> Laurent:
     if total is None:
         raise ValueError("montesinos: no tangles given")
     return _closure(total)
+
+
+def bracket_of_notation(text: str) -> Optional[Laurent]:
+    """The bracket of the diagram ``parse(text)`` builds, by the tangle route, for the
+    kinds ``conway``, ``rational``, ``pretzel`` and ``montesinos``; None for any other
+    kind (use :func:`pipeline.invariants.jones.kauffman_bracket` then).
+
+    Call it after ``parse(text)`` has succeeded: the arguments are read with the
+    same helpers as :mod:`pipeline.notation`, and the Jones polynomial is
+    ``jones_from_bracket(bracket_of_notation(text), parse(text).writhe)``.
+
+    Raises
+    ------
+    NotationError
+        When the arguments cannot be read (as ``parse`` would).
+
+    Examples
+    --------
+    >>> bracket_of_notation("pretzel:1,2") == bracket_of_notation("conway:3")
+    True
+    >>> bracket_of_notation("torus:2,3") is None
+    True
+    """
+    kind, args = split_notation(text)
+    if kind == "conway":
+        return two_bridge_bracket(_ints("conway", args))
+    if kind == "rational":
+        m = re.fullmatch(r"\s*([+-]?\d+)\s*/\s*([+-]?\d+)\s*", args)
+        if not m:
+            raise NotationError(f"rational: {args.strip()!r} is not of the form α/β")
+        alpha, beta = int(m.group(1)), int(m.group(2))
+        return two_bridge_bracket(_two_bridge.continued_fraction(alpha, beta) if beta else [])
+    if kind == "pretzel":
+        return montesinos_bracket([None if p == 0 else Fraction(1, p) for p in _ints("pretzel", args)])
+    if kind == "montesinos":
+        if not args.strip():
+            raise NotationError("montesinos: no tangles given")
+        return montesinos_bracket([_fraction("montesinos", tok) for tok in args.split(",")])
+    return None
