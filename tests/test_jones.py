@@ -388,6 +388,26 @@ def test_jones_from_bracket_refuses_a_wrong_writhe():
         jones_from_bracket(kauffman_bracket(parse("torus:2,3")), 2)
 
 
+@settings(max_examples=25, deadline=None)
+@given(st.sampled_from(["torus:3,5", "pretzel:3,0,-3,2", "montesinos:2/5,-3/7", "braid:1,1,1,3,3,-2", "conway:2 1 1 2",
+                        "pd:[[1,1,2,2]]"]), st.randoms(use_true_random=False))
+def test_any_crossing_order_gives_the_same_bracket(text, rnd):
+    # the programme is correct for every order, not only the greedy one (Kauffman 1987: the
+    # state sum does not depend on the order in which crossings are smoothed)
+    import pipeline.invariants.jones as jones_module
+
+    d = parse(text)
+    order = list(range(d.n_crossings))
+    rnd.shuffle(order)
+    original = jones_module.crossing_order
+    jones_module.crossing_order = lambda diagram: order
+    try:
+        shuffled = kauffman_bracket(d)
+    finally:
+        jones_module.crossing_order = original
+    assert shuffled == kauffman_bracket(d) == slow_state_sum(d)
+
+
 def test_crossing_order_is_a_permutation():
     for text in ["torus:5,7", "pretzel:3,0,3", "braid:1,1,1,3,3", "pd:[[1,1,2,2]]"]:
         d = parse(text)
