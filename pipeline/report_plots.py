@@ -43,23 +43,23 @@ def _finish(fig, ax, path: Path, title: str, empty: bool) -> Path:
 
 
 def histogram_by_family(data: dict[str, Sequence[int]], path: Path, title: str, *, xlabel: str) -> Path:
-    """One step histogram per family; log-scaled x axis when values span > 3 decades."""
+    """One step histogram per family; log10 of the values when they span > 3 decades."""
     plt = _pyplot()
     fig, ax = plt.subplots(figsize=(7, 4))
     values = [v for vs in data.values() for v in vs]
     if values:
         import math
         top = max(values)
-        log = top > 1000 and min(v for v in values if v > 0) * 1000 < top if any(v > 0 for v in values) else False
-        if log:
-            edges = [10 ** (k / 4) for k in range(0, int(4 * math.log10(top)) + 6)]
-            ax.set_xscale("log")
-        else:
-            edges = [x - 0.5 for x in range(0, int(top) + 2)] if top <= 60 else 40
+        positive = [v for v in values if v > 0]
+        log = bool(positive) and top > 1000 and min(positive) * 1000 < top
         for family, vs in sorted(data.items()):
-            ax.hist([max(v, 1) if log else v for v in vs], bins=edges, histtype="step", linewidth=1.5,
-                    label=f"{family} ({len(vs)})")
-        ax.set_xlabel(xlabel)
+            if log:  # exact big ints: log10 of a Python int never overflows a float
+                xs = [math.log10(v) if v > 0 else 0.0 for v in vs]
+            else:
+                xs = [int(v) for v in vs]
+            bins = 40 if log or top > 60 else [x - 0.5 for x in range(0, int(top) + 2)]
+            ax.hist(xs, bins=bins, histtype="step", linewidth=1.5, label=f"{family} ({len(vs)})")
+        ax.set_xlabel(f"log10 {xlabel} (0 for {xlabel} 0)" if log else xlabel)
         ax.set_ylabel("diagrams")
         ax.legend(fontsize=8)
     return _finish(fig, ax, path, title, not values)

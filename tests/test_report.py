@@ -106,3 +106,10 @@ def test_report_lists_keys_shared_across_families(report_dir):
     m = re.search(r"(\d+) knot keys occur in more than one family", md)
     assert m and int(m.group(1)) > 0
     assert re.search(r"\(([a-z_]+, )*torus(, [a-z_]+)*\)", md) and "two_bridge" in md
+
+
+def test_determinant_histogram_handles_integers_beyond_float_range(tmp_path):
+    from pipeline import report_plots as rp
+    out = rp.histogram_by_family({"two_bridge": [3, 5, 10 ** 83, 10 ** 400], "torus": [0, 1]},
+                                 tmp_path / "h.png", "t", xlabel="determinant")
+    assert out.read_bytes().startswith(PNG)
