@@ -113,7 +113,8 @@ def test_positive_trefoil_and_mirror():
 
 
 def test_bracket_of_trefoil_by_hand():
-    # Kauffman (1987): <σ1³ closure> = A^-7 - A^-3 - A^5 (three-state expansion by hand)
+    # <closure of σ1³> = A^-7 - A^-3 - A^5, the worked example of the bracket *(common practice;
+    # memory of Kauffman 1987)*; it also follows from V = t + t^3 - t^4 and writhe 3
     assert kauffman_bracket(parse("torus:2,3")) == Laurent({-14: 1, -6: -1, 10: -1})
 
 
