@@ -9,22 +9,16 @@ A census row gets a **knot key** naming its unoriented link type:
   verdict from the same theorem;
 * otherwise from a **fingerprint** of its invariants (``proof = 'fingerprint only'``).
 
-Fingerprints
-------------
-Knots: determinant, invariant factors, Alexander, Jones and signature (the Jones
-polynomial and the signature distinguish a knot from its mirror; the mirror
-fingerprint uses V(1/t) and −σ).  Links: only orientation-free data — determinant,
-invariant factors, number of components, and, when the diagram is at hand, the *set*
-of Jones polynomials over all orientations of the components, obtained from one of
-them by Morton's reversal formula V(L') = t^{−3λ} V(L), λ = lk(K, L − K) for the
-reversed sublink K [1].  Rows whose fingerprints differ are proven distinct (when
-both fingerprints are complete, prefix ``fp:``; a row missing an invariant gets the
-prefix ``fp-partial:`` and proves nothing against others).  Equal fingerprints prove
-nothing: mutants such as P(2,3,3,5) and P(2,3,5,3) share every invariant here and are
-told apart only by Bonahon–Siebenmann.  A fingerprint key names a class of rows,
-possibly containing a knot and its mirror when their invariants agree; its mirror
-key is the fingerprint of the mirrored invariants, and amphichirality stays unknown
-unless an invariant proves chirality.
+Fingerprints (:mod:`pipeline.fingerprint`)
+------------------------------------------
+Knots: determinant, invariant factors, Alexander, Jones, signature; links: only
+orientation-free data (determinant, invariant factors, components, the set of Jones
+polynomials over all orientations).  Rows whose complete fingerprints differ are
+proven distinct.  Equal fingerprints prove nothing: mutants such as P(2,3,3,5) and
+P(2,3,5,3) share every invariant here and are told apart only by Bonahon–Siebenmann.
+A fingerprint key names a class of rows, possibly containing a knot and its mirror
+when their invariants agree; its mirror key is the fingerprint of the mirrored
+invariants, and amphichirality stays unknown unless an invariant proves chirality.
 
 The knots table (:func:`build_knots_table`) refuses to merge rows whose
 orientation-free invariants differ (for knots: any invariant); that would be a bug
@@ -32,32 +26,26 @@ in a normal form or an invariant, and it raises :class:`KeyConflictError`.
 
 References
 ----------
-1. H. R. Morton, "The Jones polynomial for unoriented links", Quart. J. Math. Oxford
-   37 (1986).
-2. L. Kauffman, K. Murasugi, M. Thistlethwaite, Topology 26 (1987): a connected
+1. L. Kauffman, K. Murasugi, M. Thistlethwaite, Topology 26 (1987): a connected
    reduced alternating diagram has the minimal crossing number.
 """
 
 from __future__ import annotations
 
-import hashlib
 import json
 import re
 from fractions import Fraction
-from itertools import combinations
 from typing import Any, Optional
 
 from .canonical import canonical_text, diagram_id
 from .diagram import Diagram
 from .errors import KnotLedgerError
+from .fingerprint import (_factors, _invert, _poly, fingerprint, jones_orientation_set,
+                          mirror_fingerprint)
 from .normal_forms import (CN_ALT, NormalForm, montesinos_nf, pretzel_nf, torus_nf, two_bridge_nf)
-from .poly import Laurent
 
 __all__ = ["canonical_text", "diagram_id", "knot_key", "fingerprint", "build_knots_table",
            "mark_duplicates", "normal_form", "is_reduced", "jones_orientation_set", "KeyConflictError"]
-
-MAX_ORIENTATION_COMPONENTS = 10
-
 
 class KeyConflictError(KnotLedgerError):
     """Two rows under one knot key have different invariants (a bug somewhere)."""
@@ -126,98 +114,6 @@ def _torus_braid(word: list[int]) -> Optional[NormalForm]:
     if len(word) % n1 or word != block * (len(word) // n1):
         return None
     return torus_nf(n1 + 1, s * len(word) // n1)
-
-
-# ---------------------------------------------------------------------- fingerprints
-def _poly(v: Any) -> Optional[list]:
-    """A polynomial in DESIGN.md JSON form, from a Laurent, a JSON list or JSON text."""
-    if v is None:
-        return None
-    if isinstance(v, Laurent):
-        return v.to_json()
-    if isinstance(v, str):
-        v = json.loads(v)
-    return Laurent.from_json(v).to_json()
-
-
-def _factors(v: Any) -> Optional[list[int]]:
-    if v is None:
-        return None
-    if isinstance(v, str):
-        v = json.loads(v)
-    return [int(x) for x in v]
-
-
-def _invert(p: Optional[list]) -> Optional[list]:
-    return None if p is None else Laurent.from_json(p).invert().to_json()
-
-
-def jones_orientation_set(diagram: Diagram, jones: Laurent) -> Optional[list[list]]:
-    """Jones polynomials of ``diagram`` over all orientations of its components (sorted JSON).
-
-    Morton's formula: reversing the sublink K multiplies V by t^{−3 lk(K, L−K)}.
-    None when the diagram has more than ``MAX_ORIENTATION_COMPONENTS`` components.
-    """
-    comps = diagram.components
-    c = len(comps)
-    if c > MAX_ORIENTATION_COMPONENTS:
-        return None
-    comp_of = diagram.component_of_label
-    lk2 = [[0] * c for _ in range(c)]     # 2·lk
-    for i, (a, b, _, d) in enumerate(diagram.pd):
-        x, y = comp_of[a], comp_of[b]
-        if x != y:
-            lk2[x][y] += diagram.signs[i]
-            lk2[y][x] += diagram.signs[i]
-    out = set()
-    for r in range(c + 1):
-        for sub in combinations(range(c), r):
-            rest = [j for j in range(c) if j not in sub]
-            lam = sum(lk2[i][j] for i in sub for j in rest) // 2
-            out.add(json.dumps(jones.shift(-6 * lam).to_json()))
-    return sorted(json.loads(s) for s in out)
-
-
-def _fingerprint_data(row: dict, *, mirror: bool = False) -> tuple[dict, bool]:
-    """(data, complete) of the fingerprint."""
-    comps = row.get("components")
-    data: dict[str, Any] = {"components": comps, "determinant": row.get("determinant"),
-                            "invariant_factors": _factors(row.get("invariant_factors"))}
-    if data["determinant"] is not None:
-        data["determinant"] = int(data["determinant"])
-    if comps == 1:
-        jones = _poly(row.get("jones"))
-        sig = row.get("signature")
-        data["alexander"] = _poly(row.get("alexander"))
-        data["jones"] = _invert(jones) if mirror else jones
-        data["signature"] = None if sig is None else (-int(sig) if mirror else int(sig))
-    else:
-        js = row.get("jones_orientations")
-        d, jones = row.get("diagram"), row.get("jones")
-        if js is None and isinstance(d, Diagram) and jones is not None:
-            js = jones_orientation_set(d, jones if isinstance(jones, Laurent) else Laurent.from_json(_poly(jones)))
-        if js is not None and mirror:
-            js = sorted(_invert(p) for p in js)
-        data["jones_orientations"] = js
-    return data, all(v is not None for v in data.values())
-
-
-def _hash(data: dict, complete: bool) -> str:
-    h = hashlib.sha256(json.dumps(data, sort_keys=True, separators=(",", ":")).encode()).hexdigest()
-    return ("fp:" if complete else "fp-partial:") + h[:24]
-
-
-def fingerprint(row: dict) -> str:
-    """Fingerprint key of a row from its invariants (see the module docstring).
-
-    Example: two diagrams of the figure-eight knot (conway:2 2 and its mirror) get the
-    same fingerprint; the trefoil and its mirror get different ones.
-    """
-    return _hash(*_fingerprint_data(row))
-
-
-def _mirror_fingerprint(row: dict) -> str:
-    return _hash(*_fingerprint_data(row, mirror=True))
 
 
 # ---------------------------------------------------------------------- crossing numbers
@@ -290,7 +186,7 @@ def knot_key(row: dict) -> dict:
         if out["crossing_number"] is None and alt_cn is not None:
             out["crossing_number"], out["crossing_number_source"] = alt_cn, CN_ALT
         return out
-    mfp = _mirror_fingerprint(row)
+    mfp = mirror_fingerprint(row)
     amph, reason = None, "unknown: invariants do not decide"
     if row.get("components") == 1:
         j = _poly(row.get("jones"))
