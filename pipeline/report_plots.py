@@ -52,13 +52,17 @@ def histogram_by_family(data: dict[str, Sequence[int]], path: Path, title: str, 
         top = max(values)
         positive = [v for v in values if v > 0]
         log = bool(positive) and top > 1000 and min(positive) * 1000 < top
+        def scale(v):  # exact big ints: log10 of a Python int never overflows a float
+            return (math.log10(v) if v > 0 else 0.0) if log else float(v)
+        lo, hi = min(scale(v) for v in values), scale(top)
+        if log or top > 60:
+            width = (hi - lo) / 40 or 1.0
+            bins = [lo + k * width for k in range(41)]
+        else:
+            bins = [x - 0.5 for x in range(int(min(values)), int(top) + 2)]
         for family, vs in sorted(data.items()):
-            if log:  # exact big ints: log10 of a Python int never overflows a float
-                xs = [math.log10(v) if v > 0 else 0.0 for v in vs]
-            else:
-                xs = [int(v) for v in vs]
-            bins = 40 if log or top > 60 else [x - 0.5 for x in range(0, int(top) + 2)]
-            ax.hist(xs, bins=bins, histtype="step", linewidth=1.5, label=f"{family} ({len(vs)})")
+            ax.hist([scale(v) for v in vs], bins=bins, histtype="step", linewidth=1.5,
+                    label=f"{family} ({len(vs)})")
         ax.set_xlabel(f"log10 {xlabel} (0 for {xlabel} 0)" if log else xlabel)
         ax.set_ylabel("diagrams")
         ax.legend(fontsize=8)
