@@ -51,7 +51,7 @@ def histogram_by_family(data: dict[str, Sequence[int]], path: Path, title: str, 
         import math
         top = max(values)
         positive = [v for v in values if v > 0]
-        log = bool(positive) and top > 1000 and min(positive) * 1000 < top
+        log = bool(positive) and (top > 10 ** 15 or (top > 1000 and min(positive) * 1000 < top))
         def scale(v):  # exact big ints: log10 of a Python int never overflows a float
             return (math.log10(v) if v > 0 else 0.0) if log else float(v)
         lo, hi = min(scale(v) for v in values), scale(top)
