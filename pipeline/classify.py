@@ -174,6 +174,9 @@ def knot_key(row: dict) -> dict:
     'torus:2,3'
     """
     nf = normal_form(row)
+    comps = row.get("components")
+    if nf is not None and comps is not None and int(comps) != nf.components:
+        nf = None   # the normal form disagrees with the diagram: never key by it (a bug to report)
     alt_cn = _alternating_cn(row)
     fp = fingerprint(row)
     if nf is not None:

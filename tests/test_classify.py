@@ -441,3 +441,10 @@ def test_distinctness_notes():
     assert "not proven" in table["torus:3,3"]["distinctness_note"]
     fp = knot_key(rows[4])["knot_key"]
     assert table[fp]["distinctness_note"].startswith("possibly the same type as torus:2,3")
+
+
+def test_a_normal_form_contradicting_the_diagram_is_not_used():
+    # components of T(3,4) are 1; a row claiming 2 is inconsistent: fall back to invariants
+    k = knot_key({"notation": "torus:3,4", "components": 2, "determinant": 3, "invariant_factors": [3]})
+    assert k["proof"] == "fingerprint only"
+    assert knot_key({"notation": "torus:3,4", "components": 1})["proof"] == "normal form"
