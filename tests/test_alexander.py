@@ -368,7 +368,7 @@ def test_lowest_conway_coefficient_is_the_linking_determinant(text):
     assert nabla.get(2 * (mu - 1), 0) == linking_matrix_minor(d)
 
 
-@settings(max_examples=25, deadline=None)
+@settings(max_examples=25, deadline=None, suppress_health_check=[HealthCheck.filter_too_much])
 @given(braid_words(10))
 @example((3, [1, 1, 2, 2]))
 def test_signed_alexander_at_minus_one_matches_signature(sw):
@@ -387,7 +387,7 @@ def test_signed_alexander_at_minus_one_matches_signature(sw):
     assert value == (unit[0] * det, unit[1] * det)
 
 
-@settings(max_examples=30, deadline=None)
+@settings(max_examples=30, deadline=None, suppress_health_check=[HealthCheck.filter_too_much])
 @given(braid_words(12))
 @example((3, [1, 1, 2, 2, 1, -2]))
 def test_linking_cofactor_sign_agrees_with_skein_sign(sw):
