@@ -258,24 +258,27 @@ def test_resume_of_a_missing_census_is_an_error(tmp_path, capsys):
 
 
 def test_chunk_timeout_marks_rows_and_run_continues(tmp_path, monkeypatch):
-    spec = _write(tmp_path)
-    text = SPEC.replace("chunk_size = 6", "chunk_size = 6\ntimeout = 1")
-    (tmp_path / "census.toml").write_text(text)
+    spec = tmp_path / "census.toml"
+    spec.write_text('[census]\nchunk_size = 6\ntimeout = 1\nmax_modulus = 5\n'
+                    '[[family]]\nkind = "two_bridge"\nalpha = [2, 11]\n')  # 41 rows, 7 chunks
     monkeypatch.setenv("KNOTLEDGER_TEST_SLOW_ROW", "8:30")      # interruptible (Python)
     monkeypatch.setenv("KNOTLEDGER_TEST_STUCK_ROW", "20:30")    # deaf to SIGALRM: killed
     from joblib.externals.loky import get_reusable_executor
     get_reusable_executor(max_workers=2, kill_workers=True).shutdown(wait=True, kill_workers=True)
     t0 = time.monotonic()
-    run_census(load_spec(spec), tmp_path / "out", jobs=2, quiet=True)
+    try:
+        run_census(load_spec(spec), tmp_path / "out", jobs=2, quiet=True)
+    finally:  # workers spawned with the test hooks in their environment must not be reused
+        get_reusable_executor(max_workers=2, kill_workers=True).shutdown(wait=True, kill_workers=True)
     assert time.monotonic() - t0 < 25
-    get_reusable_executor(max_workers=2, kill_workers=True).shutdown(wait=True, kill_workers=True)
     rows = {r["row_id"]: r for r in read_table(tmp_path / "out", "diagrams").to_pylist()}
     # chunk 1 (rows 6..11): rows 6, 7 done; 8 timed out; 9..11 given up
     assert rows[7]["status"] == "ok" and rows[8]["status"] == "skipped: chunk timeout 1 s"
     assert rows[11]["status"] == "skipped: chunk timeout 1 s" and rows[11]["determinant"] is None
     # chunk 3 (rows 18..23): its worker was killed; every row says so
     assert all(rows[i]["status"].startswith("skipped: chunk timeout") for i in range(18, 24))
-    assert rows[12]["status"] == rows[30]["status"] == "ok"
+    assert rows[12]["status"] == rows[30]["status"] == rows[40]["status"] == "ok"
+    assert rows[7]["determinant"] == json.loads(rows[7]["params"])["alpha"]
 
 
 def test_workers_do_not_import_heavy_modules():
