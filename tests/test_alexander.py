@@ -19,7 +19,6 @@ from pipeline.invariants.alexander import (alexander_polynomial, conway_from_ale
                                            conway_polynomial, crossing_change, smoothing)
 from pipeline.poly import Laurent
 
-Z = Laurent({1: 1, -1: -1})          # z = t^½ − t^−½ as a Laurent in t
 ONE = Laurent({0: 1})
 
 

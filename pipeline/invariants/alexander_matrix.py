@@ -41,7 +41,6 @@ __all__ = ["alexander_rows", "det_up_to_units", "alexander_minor_det"]
 
 Row = dict[int, fmpz_poly]
 
-_ONE = fmpz_poly([1])
 _T = fmpz_poly([0, 1])
 _ONE_MINUS_T = fmpz_poly([1, -1])
 _MINUS_ONE = fmpz_poly([-1])
