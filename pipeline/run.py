@@ -82,6 +82,16 @@ def _source_hashes() -> dict:
             for p in sorted(root.rglob("*.py"))}
 
 
+def _started_options(out: Path) -> dict:
+    """The options recorded by an earlier writer of this census directory, if any."""
+    for path in sorted(out.glob("manifest*.json")) if out.is_dir() else []:
+        try:
+            return dict(json.loads(path.read_text(encoding="utf-8"))["census"]["options"])
+        except (OSError, ValueError, KeyError, TypeError):
+            continue
+    return {}
+
+
 def _identity(spec: Spec, opts: dict) -> dict:
     files = {str(p): hashlib.sha256(p.read_bytes()).hexdigest() for p in spec.input_files()}
     return {"spec_sha256": spec.sha256, "chunk_size": spec.chunk_size, "options": opts,
@@ -243,6 +253,8 @@ def run_census(spec: Spec, out: str | Path, *, jobs: int = 1, resume: bool = Fal
         raise SpecError(f"--jobs {jobs}: need at least 1")
     opts = {"max_modulus": spec.max_modulus, "jones_budget": spec.jones_budget,
             "min_colors_budget": spec.min_colors_budget, "timeout": spec.timeout}
+    if resume or shard:  # budgets given on the command line at the start stay in force
+        opts.update(_started_options(Path(out)))
     for key, val in (overrides or {}).items():
         if val is not None:
             opts[key] = val
