@@ -40,13 +40,21 @@ from .safe_expr import Expression, Null, compile_expression
 __all__ = ["ClaimResult", "RowEnv", "census_rows", "check_claim", "format_result", "language_help",
            "add_arguments", "main"]
 
+try:
+    from pandas import NA as _NA
+except ImportError:  # pragma: no cover
+    _NA = None
+
 #: Short names for columns.
 ALIASES = {"factors": "invariant_factors"}
 
 
 def _plain(value: Any) -> Any:
     """A pandas/numpy cell as a plain exact Python value (None for nulls)."""
-    if value is None:
+    kind = type(value)
+    if kind is int or kind is str or kind is bool:
+        return value
+    if value is None or value is _NA:
         return None
     if isinstance(value, (list, tuple)):
         return tuple(_plain(v) for v in value)
@@ -92,7 +100,7 @@ def _column(df, name: str) -> list:
     text = f"{name}_text"
     if text in df.columns:
         texts = df[text].tolist()
-        return [exact_int(_plain(v), _plain(t)) for v, t in zip(col, texts)]
+        return [int(t) if type(t) is str else exact_int(_plain(v)) for v, t in zip(col, texts)]
     values = [_plain(v) for v in col]
     if name == "invariant_factors":
         return [None if v is None else tuple(_int_or_text(x) for x in v) for v in values]
@@ -191,7 +199,11 @@ def census_rows(census: Census, expressions: list[Expression], *, family: Option
     for fname in functions & {"alexander_at", "jones_at"}:
         col = fname[:-3]
         polys[col] = [_plain(v) for v in df[col].tolist()] if col in df.columns else [None] * len(df)
-    colorings = _colorings_index(census) if functions & {"colorable", "colorings", "min_colors"} else None
+    colorings = None
+    if functions & {"colorable", "colorings", "min_colors"}:
+        moduli = [e.row_function_moduli for e in expressions if e.row_functions]
+        wanted = None if any(m is None for m in moduli) else set().union(*moduli)
+        colorings = _colorings_index(census, set(_plain(v) for v in df["row_id"].tolist()), wanted)
     row_ids = [_plain(v) for v in df["row_id"].tolist()]
     notations = [_plain(v) for v in df["notation"].tolist()] if "notation" in df.columns else [None] * len(df)
     families = [_plain(v) for v in df["family"].tolist()] if "family" in df.columns else [None] * len(df)
@@ -208,11 +220,16 @@ def census_rows(census: Census, expressions: list[Expression], *, family: Option
     return out
 
 
-def _colorings_index(census: Census) -> dict:
+def _colorings_index(census: Census, row_ids: set, moduli: Optional[set]) -> dict:
+    """row_id -> {modulus: (count, min_colors)} for the given rows (and moduli, if known)."""
     df = census.colorings
     index: dict = {}
     if df is None or len(df) == 0:
         return index
+    if moduli is not None:
+        df = df[df["modulus"].isin(sorted(moduli))]
+    if len(row_ids) < len(census.diagrams):
+        df = df[df["row_id"].isin(sorted(row_ids))]
     counts = _column(df, "count") if "count" in df.columns else [None] * len(df)
     fewest = [_plain(v) for v in df["min_colors"].tolist()] if "min_colors" in df.columns else [None] * len(df)
     for rid, n, c, m in zip(df["row_id"].tolist(), df["modulus"].tolist(), counts, fewest):

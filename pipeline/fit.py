@@ -32,6 +32,7 @@ from collections import Counter, defaultdict
 from dataclasses import dataclass, field
 from fractions import Fraction
 from itertools import combinations_with_replacement
+from math import lcm
 from pathlib import Path
 from typing import Any, Optional, Sequence
 
@@ -69,10 +70,6 @@ def _mono_value(point: Sequence[int], exps: Sequence[int]) -> int:
     return v
 
 
-def _evaluate(coeffs: dict, point: Sequence[int]) -> Fraction:
-    return sum((c * _mono_value(point, e) for e, c in coeffs.items()), Fraction(0))
-
-
 @dataclass
 class PolynomialFit:
     """An exact polynomial in the parameters and how it fares on the data."""
@@ -105,20 +102,39 @@ class PolynomialFit:
         return not self.failing and self.points > self.unknowns
 
 
+def _spread(n: int, k: int) -> list[int]:
+    """k evenly spaced indices of range(n), the first included (deterministic)."""
+    if k >= n:
+        return list(range(n))
+    return sorted({(i * (n - 1)) // (k - 1) for i in range(k)}) if k > 1 else [0]
+
+
 def _solve(points: list, values: list, monos: list) -> tuple[dict, int]:
-    """Exact solve on independent points/separated monomials: (coeffs, unknowns)."""
+    """Exact solve on independent points/separated monomials: (coeffs, unknowns).
+
+    Independent points are looked for in an evenly spread sample of a few times as many
+    points as unknowns, grown until the rank stops short only because the data itself
+    does not separate the monomials.
+    """
     from sympy import QQ
     from sympy.polys.matrices import DomainMatrix
 
-    rows = [[QQ(_mono_value(pt, e)) for e in monos] for pt in points]
-    a = DomainMatrix(rows, (len(points), len(monos)), QQ)
-    _, row_pivots = a.transpose().rref()            # independent data points
-    sub = a.extract(list(row_pivots), list(range(len(monos))))
+    n, m = len(points), len(monos)
+    k = min(n, 4 * m + 8)
+    while True:
+        idx = _spread(n, k)
+        rows = [[QQ(_mono_value(points[i], e)) for e in monos] for i in idx]
+        a = DomainMatrix(rows, (len(idx), m), QQ)
+        _, row_pivots = a.transpose().rref()        # independent data points
+        if len(row_pivots) == m or k >= n:
+            break
+        k = min(n, 4 * k)
+    sub = a.extract(list(row_pivots), list(range(m)))
     _, col_pivots = sub.rref()                       # monomials the data separates
     if not col_pivots:
         return {}, 0
     square = sub.extract(list(range(len(row_pivots))), list(col_pivots))
-    rhs = DomainMatrix([[QQ(values[i])] for i in row_pivots], (len(row_pivots), 1), QQ)
+    rhs = DomainMatrix([[QQ(values[idx[i]])] for i in row_pivots], (len(row_pivots), 1), QQ)
     if len(row_pivots) != len(col_pivots):          # cannot happen for a rank-r selection
         raise QueryError("fit: internal rank mismatch")
     sol = square.lu_solve(rhs).to_Matrix()
@@ -128,6 +144,14 @@ def _solve(points: list, values: list, monos: list) -> tuple[dict, int]:
         if c != 0:
             coeffs[monos[j]] = Fraction(int(c.p), int(c.q))
     return coeffs, len(col_pivots)
+
+
+def _failing(coeffs: dict, points: Sequence, values: Sequence) -> list[int]:
+    """Indices where the polynomial differs from the value (exact, in integers)."""
+    den = lcm(*[c.denominator for c in coeffs.values()]) if coeffs else 1
+    terms = [(e, int(c * den)) for e, c in coeffs.items()]
+    return [i for i, pt in enumerate(points)
+            if sum(c * _mono_value(pt, e) for e, c in terms) != den * values[i]]
 
 
 def _score(fit: PolynomialFit, n: int) -> int:
@@ -173,7 +197,7 @@ def fit_polynomial(points: Sequence[Sequence[int]], values: Sequence[int], names
     def attempt(pts: list, degree: int, monos: list) -> PolynomialFit:
         vals = [Counter(values[i] for i in by_point[p]).most_common(1)[0][0] for p in pts]
         coeffs, unknowns = _solve(pts, vals, monos)
-        failing = [i for i, pt in enumerate(points) if _evaluate(coeffs, pt) != values[i]]
+        failing = _failing(coeffs, points, values)
         return PolynomialFit(tuple(names), coeffs, degree, unknowns, len(by_point), failing,
                              separated=unknowns == len(monos))
 

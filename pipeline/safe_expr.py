@@ -90,10 +90,12 @@ def _parse(text: str, what: str) -> ast.Expression:
         raise ClaimError(f"{what}: expression too deeply nested or malformed") from err
 
 
-def _validate(tree: ast.Expression, what: str) -> tuple[set[str], set[str]]:
-    """Check every node; return (names used as values, functions called)."""
+def _validate(tree: ast.Expression, what: str) -> tuple[set[str], set[str], set]:
+    """Check every node; return (names used as values, functions called, row-function
+    arguments that are integer literals -- None among them when one is not)."""
     names: set[str] = set()
     calls: set[str] = set()
+    row_args: set = set()
     call_funcs = set()
     for node in ast.walk(tree):
         if isinstance(node, ast.Call):
@@ -133,6 +135,10 @@ def _validate(tree: ast.Expression, what: str) -> tuple[set[str], set[str]]:
                 raise ClaimError(f"{what}: {fname} takes {lo if lo == hi else f'{lo} or more'} "
                                  f"argument{'s' if (hi or 2) != 1 else ''}, got {n}")
             calls.add(fname)
+            if fname in ROW_FUNCTIONS:
+                arg = node.args[0] if node.args else None
+                value = _constant_int(arg)
+                row_args.add(value)
         elif isinstance(node, ast.Constant):
             v = node.value
             if isinstance(v, float):
@@ -145,7 +151,17 @@ def _validate(tree: ast.Expression, what: str) -> tuple[set[str], set[str]]:
             continue
         else:
             raise ClaimError(f"{what}: refused construct: {kind.__name__}")
-    return names, calls
+    return names, calls, row_args
+
+
+def _constant_int(node: Any) -> Any:
+    """The integer value of a literal (possibly negated) argument node, else None."""
+    if isinstance(node, ast.UnaryOp) and isinstance(node.op, ast.USub):
+        inner = _constant_int(node.operand)
+        return None if inner is None else -inner
+    if isinstance(node, ast.Constant) and isinstance(node.value, int) and not isinstance(node.value, bool):
+        return node.value
+    return None
 
 
 def _pow(a: Any, b: Any) -> Any:
@@ -284,11 +300,13 @@ class Expression:
 
     def __init__(self, text: str, *, what: str = "claim") -> None:
         tree = _parse(text, what)
-        names, calls = _validate(tree, what)
+        names, calls, row_args = _validate(tree, what)
         self.text = text.strip()
         self.what = what
         self.names = frozenset(names)
         self.row_functions = frozenset(c for c in calls if c in ROW_FUNCTIONS)
+        #: the moduli row functions are called with, or None if some are not literals
+        self.row_function_moduli = None if None in row_args else frozenset(row_args)
         try:
             self._fn = _compile(tree)
         except RecursionError as err:
