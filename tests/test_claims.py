@@ -292,3 +292,11 @@ def test_published_relations_hold_on_every_knot_of_the_census(census, claim):
     r = check_claim(census, claim, where="components == 1")
     assert r.selected > 100 and r.n_counterexamples == 0 and r.held + r.undecided == r.selected
     assert r.held > 0.9 * r.selected
+
+
+def test_row_functions_with_a_parameter_as_modulus(census):
+    # prime q: nontrivially q-colourable iff q | det (Fox); the modulus is a parameter here,
+    # not a literal, so the whole colourings table must be consulted
+    r = check_claim(census, "not is_prime(q) or colorable(q) == divides(q, determinant)",
+                    family="torus", where="q <= 11")
+    assert r.selected > 20 and r.held == r.selected
