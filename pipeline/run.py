@@ -228,14 +228,9 @@ def build_knots(store) -> None:
         store.write_knots([], "pipeline.classify not installed: knots table left empty")
         return
     from schemas.tables import KNOTS
-    from .store import read_table
-    skip = {"labels", "source", "checks", "alexander_terms", "conway_terms", "jones_terms",
-            "conway", "invariant_factors_int"}
-    table = read_table(store.dir, "diagrams")
-    rows = table.select([c for c in table.column_names if c not in skip]).to_pylist()
-    del table
+    from .knots_build import knots_rows
     knots = []
-    for k in build_knots_table(rows):
+    for k in knots_rows(store.dir, build_knots_table):
         extra = {c: v for c, v in k.items() if c not in KNOTS.names}
         row = {c: v for c, v in k.items() if c in KNOTS.names}
         row["extras"] = json.dumps(extra, sort_keys=True, default=str) if extra else None

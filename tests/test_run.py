@@ -302,3 +302,14 @@ def test_knots_table_counts_every_keyed_row(reference):
     # T(2,3) = b(3,1) = conway:3 (REFERENCES.md §5): one type, several diagrams
     trefoil = {r["knot_key"] for r in keyed if r["notation"] in ("torus:2,3", "rational:3/1", "conway:3")}
     assert len(trefoil) == 1
+
+
+def test_knots_table_built_in_small_batches_equals_one_batch(reference):
+    classify = pytest.importorskip("pipeline.classify")
+    from pipeline.knots_build import knots_rows
+    out, c = reference
+    one = knots_rows(out, classify.build_knots_table, batch_rows=10 ** 9)
+    many = knots_rows(out, classify.build_knots_table, batch_rows=3)
+    key = lambda r: r["knot_key"]  # noqa: E731
+    assert sorted(one, key=key) == sorted(many, key=key)
+    assert [k["knot_key"] for k in c["knots"]] == sorted(k["knot_key"] for k in one)

@@ -1,0 +1,101 @@
+"""Build the knots table in bounded memory.
+
+:func:`pipeline.classify.build_knots_table` needs every row of a knot key together,
+and it annotates each key with the other keys that share one of its fingerprints.
+So the rows are split into *clusters*: connected components of the graph joining a
+knot key to the fingerprints of its rows (union-find over the distinct pairs, a
+structure the size of the number of knot types, not of the census).  Clusters are
+packed into batches of about ``batch_rows`` rows; each batch is read back from the
+Parquet parts with a column projection and a filter, handed to the classifier, and
+dropped.  Every knot key and every fingerprint lives in exactly one batch, so the
+result equals one call over all rows, while memory is bounded by the batch size
+(plus the largest cluster).
+"""
+
+from __future__ import annotations
+
+import json
+from pathlib import Path
+from typing import Callable, Iterator
+
+__all__ = ["knots_rows", "COLUMNS"]
+
+#: diagrams columns the classifier reads (the rest stay on disk).
+COLUMNS = ["row_id", "diagram_id", "family", "params", "notation", "crossings", "components",
+           "determinant", "determinant_text", "invariant_factors", "alexander", "jones",
+           "signature", "chirality", "chirality_reason", "knot_key", "mirror_key", "knot_proof",
+           "status", "extras"]
+
+
+def _find(parent: dict, x):
+    root = x
+    while parent[root] != root:
+        root = parent[root]
+    while parent[x] != root:
+        parent[x], x = root, parent[x]
+    return root
+
+
+def _slim(extras: str | None) -> str | None:
+    """Keep only the ``knot`` part of extras (the classifier's own fields)."""
+    if not extras:
+        return None
+    knot = json.loads(extras).get("knot")
+    return json.dumps({"knot": knot}) if knot else None
+
+
+def _batches(dataset, batch_rows: int) -> Iterator[list]:
+    parent: dict = {}
+    counts: dict = {}
+    for batch in dataset.to_batches(columns=["knot_key", "extras"]):
+        keys = batch.column("knot_key").to_pylist()
+        extras = batch.column("extras").to_pylist()
+        for key, ex in zip(keys, extras):
+            k = ("k", key)
+            parent.setdefault(k, k)
+            counts[k] = counts.get(k, 0) + 1
+            fp = (json.loads(ex).get("knot") or {}).get("fingerprint") if ex else None
+            if fp is not None:
+                f = ("f", fp)
+                parent.setdefault(f, f)
+                a, b = _find(parent, k), _find(parent, f)
+                if a != b:
+                    parent[a] = b
+    clusters: dict = {}
+    for node, n in counts.items():
+        root = _find(parent, node)
+        size, keys = clusters.get(root, (0, []))
+        keys.append(node[1])
+        clusters[root] = (size + n, keys)
+    batch, size = [], 0
+    for root in sorted(clusters, key=lambda r: str(min(map(str, clusters[r][1])))):
+        n, keys = clusters[root]
+        batch.extend(keys)
+        size += n
+        if size >= batch_rows:
+            yield batch
+            batch, size = [], 0
+    if batch:
+        yield batch
+
+
+def knots_rows(directory: str | Path, build: Callable[[list[dict]], list[dict]], *,
+               batch_rows: int = 50_000) -> list[dict]:
+    """Knots rows of a census directory, built batch by batch with ``build``."""
+    import pyarrow.compute as pc
+    import pyarrow.dataset as ds
+    from schemas.tables import DIAGRAMS
+    dataset = ds.dataset(str(Path(directory) / "diagrams"), format="parquet", schema=DIAGRAMS)
+    out: list[dict] = []
+    for keys in _batches(dataset, batch_rows):
+        named = [k for k in keys if k is not None]
+        cond = pc.field("knot_key").isin(named)
+        if len(named) < len(keys):
+            cond = cond | pc.field("knot_key").is_null()
+        rows = dataset.to_table(columns=COLUMNS, filter=cond).to_pylist()
+        for r in rows:
+            r["extras"] = _slim(r["extras"])
+        rows.sort(key=lambda r: r["row_id"])
+        out.extend(build(rows))
+        del rows
+    return out
