@@ -2,6 +2,7 @@
 from .diagram import Diagram
 from .errors import KnotLedgerError, NotationError, DiagramError, SpecError, BudgetExceeded
 from .notation import parse
+from .census_api import open_census
 
 __version__ = "0.1.0"
-__all__ = ["Diagram", "parse", "KnotLedgerError", "NotationError", "DiagramError", "SpecError", "BudgetExceeded", "__version__"]
+__all__ = ["Diagram", "parse", "open_census", "KnotLedgerError", "NotationError", "DiagramError", "SpecError", "BudgetExceeded", "__version__"]
