@@ -339,3 +339,22 @@ def test_bad_modulus_is_refused():
         witness_coloring(parse("torus:2,3"), 9)
     with pytest.raises(ValueError, match="not a prime"):
         min_colors(parse("torus:2,3"), 1)
+
+
+@pytest.mark.parametrize("seed", range(40))
+def test_sparse_euclidean_diagonalisation_equals_sympy_smith_form(seed):
+    # The stage used when more than DENSE_LIMIT rows survive the ±1 pivots, checked on
+    # random sparse integer matrices against sympy's Smith form (Smith 1861).
+    from pipeline.invariants.sparse_elimination import diagonalise, smith_of_diagonal
+
+    rng = random.Random(seed)
+    nrows, ncols = rng.randint(1, 7), rng.randint(1, 7)
+    rows = [{c: rng.choice([-9, -6, -4, -3, -2, 2, 3, 4, 6, 8, 12])
+             for c in rng.sample(range(ncols), rng.randint(0, min(3, ncols)))} for _ in range(nrows)]
+    found, rest = diagonalise(rows)
+    assert rest == []
+    dense = Matrix([[r.get(c, 0) for c in range(ncols)] for r in rows])
+    s = smith_normal_form(dense, domain=ZZ) if any(rows) else dense
+    chain = _smith_chain([s[i, i] for i in range(min(s.shape))])
+    assert smith_of_diagonal(found) == sorted(x for x in chain if x != 1)
+    assert len(found) == len(chain)  # the rank

@@ -56,10 +56,14 @@ def _sparse_matrix(diagram: Diagram) -> tuple[list[dict[int, int]], int]:
     """Rows of the colouring matrix as {column: entry} dicts, and the column count."""
     arc = diagram.arc_of_label
     rows = []
-    for i, (a, _b, c, _d) in enumerate(diagram.pd):
-        over = arc[diagram.over_labels(i)[0]]
+    for (a, b, c, d), sign in zip(diagram.pd, diagram.signs):
+        over = arc[d if sign > 0 else b]  # the over-strand runs d -> b when positive
+        ua, uc = arc[a], arc[c]
+        if over != ua and over != uc and ua != uc:
+            rows.append({over: 2, ua: -1, uc: -1})
+            continue
         row: dict[int, int] = {}
-        for col, v in ((over, 2), (arc[a], -1), (arc[c], -1)):
+        for col, v in ((over, 2), (ua, -1), (uc, -1)):  # a kink: entries add up
             row[col] = row.get(col, 0) + v
         rows.append({k: v for k, v in row.items() if v})
     return rows, len(diagram.arcs) + diagram.free_loops
@@ -257,7 +261,7 @@ def _nullspace_mod_p(diagram: Diagram, p: int) -> tuple[tuple[int, ...], ...]:
         x = [0] * ncols
         x[f] = 1
         for r, c in reversed(elim.pivots):
-            x[c] = -sum(a * x[c2] for c2, a in r.items() if c2 != c) % p
+            x[c] = -sum(a * x[c2] for c2, a in r.items()) % p
         basis.append(tuple(x))
     return tuple(basis)
 

@@ -41,8 +41,8 @@ class Elimination:
         The remaining nonzero rows (column -> entry); none of them has a unit entry
         (over Z: no ±1; over Z/p this list is empty).
     pivots : list of (dict, int)
-        The pivot rows in elimination order, each with its pivot column.  Over Z/p
-        the pivot row is normalised so that the pivot entry is 1.
+        The pivot rows in elimination order as (tail, c): the row, normalised so that
+        its pivot entry is 1, is e_c + tail (tail has no entry in column c).
     ncols : int
         Number of columns of the original matrix.
     """
@@ -72,64 +72,55 @@ def eliminate(rows: list[Row], ncols: int, modulus: Optional[int] = None) -> Eli
     Notes
     -----
     Markowitz counts are refreshed lazily: a popped candidate whose count has grown is
-    pushed back, and the entries of every modified row are pushed with fresh counts.
+    pushed back, and the entries a pivot step changed are pushed with fresh counts
+    (pushing whole rows would cost O(n) per step once a row has grown long).
     """
     p = modulus
-    work: list[Row] = []
-    for r in rows:
-        r2 = {c: (v % p if p else v) for c, v in r.items()}
-        r2 = {c: v for c, v in r2.items() if v}
-        if r2:
-            work.append(r2)
+    if p:
+        work = [{c: v % p for c, v in r.items() if v % p} for r in rows]
+    else:
+        work = [{c: v for c, v in r.items() if v} for r in rows]
+    work = [r for r in work if r]
     col_rows: list[set[int]] = [set() for _ in range(ncols)]
     for i, r in enumerate(work):
         for c in r:
             col_rows[c].add(i)
     alive = [True] * len(work)
-
-    def is_unit(v: int) -> bool:
-        return v != 0 if p else (v == 1 or v == -1)
-
-    heap: list[tuple[int, int, int]] = []
-
-    def push(i: int) -> None:
-        r = work[i]
-        lr = len(r) - 1
-        for c, v in r.items():
-            if is_unit(v):
-                heapq.heappush(heap, (lr * (len(col_rows[c]) - 1), i, c))
-
-    for i in range(len(work)):
-        push(i)
+    heappush, heappop = heapq.heappush, heapq.heappop
+    heap = [((len(r) - 1) * (len(col_rows[c]) - 1), i, c)
+            for i, r in enumerate(work) for c, v in r.items() if p or v == 1 or v == -1]
+    heapq.heapify(heap)
     pivots: list[tuple[Row, int]] = []
     while heap:
-        cost, i, c = heapq.heappop(heap)
+        cost, i, c = heappop(heap)
         if not alive[i]:
             continue
         r = work[i]
         v = r.get(c)
-        if v is None or not is_unit(v):
+        if v is None or not (p or v == 1 or v == -1):
             continue
-        actual = (len(r) - 1) * (len(col_rows[c]) - 1)
+        col = col_rows[c]
+        actual = (len(r) - 1) * (len(col) - 1)
         if actual > cost:
-            heapq.heappush(heap, (actual, i, c))
+            heappush(heap, (actual, i, c))
             continue
         alive[i] = False
+        col.discard(i)
+        del r[c]
         for c2 in r:
             col_rows[c2].discard(i)
+        # the pivot row is e_c + tail once normalised to pivot 1
         if p:
-            inv = pow(v, -1, p)
-            if inv != 1:
+            if v != 1:
+                inv = pow(v, -1, p)
                 r = {c2: a * inv % p for c2, a in r.items()}
-        else:
-            inv = v  # ±1 is its own inverse
-            if v == -1:
-                r = {c2: -a for c2, a in r.items()}
-        # now r[c] == 1: subtract rj[c] * r from every other row j touching column c
-        for j in sorted(col_rows[c]):
+        elif v == -1:
+            r = {c2: -a for c2, a in r.items()}
+        items = list(r.items())
+        for j in col:
             rj = work[j]
-            f = rj[c]
-            for c2, a in r.items():
+            f = rj.pop(c)
+            for c2, a in items:
                 nv = rj.get(c2, 0) - f * a
                 if p:
                     nv %= p
@@ -140,11 +131,15 @@ def eliminate(rows: list[Row], ncols: int, modulus: Optional[int] = None) -> Eli
                 elif c2 in rj:
                     del rj[c2]
                     col_rows[c2].discard(j)
-            if rj:
-                push(j)
+            if rj:  # only entries in the pivot row's columns changed: push those
+                lr = len(rj) - 1
+                for c2, _ in items:
+                    w = rj.get(c2)
+                    if w is not None and (p or w == 1 or w == -1):
+                        heappush(heap, (lr * (len(col_rows[c2]) - 1), j, c2))
             else:
                 alive[j] = False
-        col_rows[c].clear()
+        col.clear()
         pivots.append((r, c))
     rest = [work[i] for i in range(len(work)) if alive[i]]
     return Elimination(rest=rest, pivots=pivots, ncols=ncols)
