@@ -75,11 +75,11 @@ def eliminate(rows: list[Row], ncols: int, modulus: Optional[int] = None) -> Eli
     pushed back, and the entries a pivot step changed are pushed with fresh counts
     (pushing whole rows would cost O(n) per step once a row has grown long).
     """
+    if not modulus:
+        rest, pivots = _eliminate_integer(rows, ncols)
+        return Elimination(rest=rest, pivots=pivots, ncols=ncols)
     p = modulus
-    if p:
-        work = [{c: v % p for c, v in r.items() if v % p} for r in rows]
-    else:
-        work = [{c: v for c, v in r.items() if v} for r in rows]
+    work = [{c: v % p for c, v in r.items() if v % p} for r in rows]
     work = [r for r in work if r]
     col_rows: list[set[int]] = [set() for _ in range(ncols)]
     for i, r in enumerate(work):
@@ -88,7 +88,7 @@ def eliminate(rows: list[Row], ncols: int, modulus: Optional[int] = None) -> Eli
     alive = [True] * len(work)
     heappush, heappop = heapq.heappush, heapq.heappop
     heap = [((len(r) - 1) * (len(col_rows[c]) - 1), i, c)
-            for i, r in enumerate(work) for c, v in r.items() if p or v == 1 or v == -1]
+            for i, r in enumerate(work) for c in r]  # over Z/p every nonzero entry is a unit
     heapq.heapify(heap)
     pivots: list[tuple[Row, int]] = []
     while heap:
@@ -97,7 +97,7 @@ def eliminate(rows: list[Row], ncols: int, modulus: Optional[int] = None) -> Eli
             continue
         r = work[i]
         v = r.get(c)
-        if v is None or not (p or v == 1 or v == -1):
+        if v is None:
             continue
         col = col_rows[c]
         actual = (len(r) - 1) * (len(col) - 1)
@@ -110,20 +110,15 @@ def eliminate(rows: list[Row], ncols: int, modulus: Optional[int] = None) -> Eli
         for c2 in r:
             col_rows[c2].discard(i)
         # the pivot row is e_c + tail once normalised to pivot 1
-        if p:
-            if v != 1:
-                inv = pow(v, -1, p)
-                r = {c2: a * inv % p for c2, a in r.items()}
-        elif v == -1:
-            r = {c2: -a for c2, a in r.items()}
+        if v != 1:
+            inv = pow(v, -1, p)
+            r = {c2: a * inv % p for c2, a in r.items()}
         items = list(r.items())
         for j in col:
             rj = work[j]
             f = rj.pop(c)
             for c2, a in items:
-                nv = rj.get(c2, 0) - f * a
-                if p:
-                    nv %= p
+                nv = (rj.get(c2, 0) - f * a) % p
                 if nv:
                     if c2 not in rj:
                         col_rows[c2].add(j)
@@ -135,7 +130,7 @@ def eliminate(rows: list[Row], ncols: int, modulus: Optional[int] = None) -> Eli
                 lr = len(rj) - 1
                 for c2, _ in items:
                     w = rj.get(c2)
-                    if w is not None and (p or w == 1 or w == -1):
+                    if w is not None:
                         heappush(heap, (lr * (len(col_rows[c2]) - 1), j, c2))
             else:
                 alive[j] = False
@@ -143,6 +138,69 @@ def eliminate(rows: list[Row], ncols: int, modulus: Optional[int] = None) -> Eli
         pivots.append((r, c))
     rest = [work[i] for i in range(len(work)) if alive[i]]
     return Elimination(rest=rest, pivots=pivots, ncols=ncols)
+
+def _eliminate_integer(rows: list[Row], ncols: int) -> tuple[list[Row], list[tuple[Row, int]]]:
+    """:func:`eliminate` over Z (pivots ±1), written out for speed: the hot path."""
+    work = [{c: v for c, v in r.items() if v} for r in rows]
+    work = [r for r in work if r]
+    col_rows = [set() for _ in range(ncols)]
+    for i, r in enumerate(work):
+        for c in r:
+            col_rows[c].add(i)
+    alive = [True] * len(work)
+    heappush, heappop = heapq.heappush, heapq.heappop
+    heap = [((len(r) - 1) * (len(col_rows[c]) - 1), i, c)
+            for i, r in enumerate(work) for c, v in r.items() if v == 1 or v == -1]
+    heapq.heapify(heap)
+    pivots = []
+    while heap:
+        cost, i, c = heappop(heap)
+        if not alive[i]:
+            continue
+        r = work[i]
+        v = r.get(c)
+        if v != 1 and v != -1:
+            continue
+        col = col_rows[c]
+        actual = (len(r) - 1) * (len(col) - 1)
+        if actual > cost:
+            heappush(heap, (actual, i, c))
+            continue
+        alive[i] = False
+        del r[c]
+        for c2 in r:
+            col_rows[c2].discard(i)
+        col.discard(i)
+        if v == -1:
+            for c2 in r:
+                r[c2] = -r[c2]
+        items = tuple(r.items())
+        for j in col:
+            rj = work[j]
+            f = rj.pop(c)
+            for c2, a in items:
+                old = rj.get(c2)
+                if old is None:
+                    rj[c2] = -f * a
+                    col_rows[c2].add(j)
+                else:
+                    nv = old - f * a
+                    if nv:
+                        rj[c2] = nv
+                    else:
+                        del rj[c2]
+                        col_rows[c2].discard(j)
+            if rj:
+                lr = len(rj) - 1
+                for c2, _ in items:
+                    w = rj.get(c2)
+                    if w == 1 or w == -1:
+                        heappush(heap, (lr * (len(col_rows[c2]) - 1), j, c2))
+            else:
+                alive[j] = False
+        col.clear()
+        pivots.append((r, c))
+    return [work[i] for i in range(len(work)) if alive[i]], pivots
 
 
 def diagonalise(rows: list[Row], *, max_nnz: Optional[int] = None) -> tuple[list[int], list[Row]]:
