@@ -53,7 +53,7 @@ notation string; ``diagram_id`` is its sha256 hex digest.
 
 References
 ----------
-1. L. H. Kauffman, "Virtual knot theory", European J. Combin. 20 (1999): a signed
+1. L. H. Kauffman, the paper introducing virtual knots, European J. Combin. 20 (1999): a signed
    Gauss code with over/under determines the diagram on its surface.
 2. L. Weinberg, "A simple and efficient algorithm for determining isomorphism of
    planar triply connected graphs", IEEE Trans. Circuit Theory 13 (1966): canonical

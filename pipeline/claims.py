@@ -20,7 +20,7 @@ found, 2 no row selected or none decided (or a bad expression).
 Example
 -------
 ``knotledger check DIR --family pretzel --claim "determinant == abs(p1*p2 + p2*p3 + p1*p3)"``
-tests the pretzel determinant formula (Kawauchi, *A Survey of Knot Theory*, 1996).
+tests the pretzel determinant formula (Kawauchi, survey monograph, 1996).
 """
 
 from __future__ import annotations

@@ -132,7 +132,7 @@ def test_two_bridge_determinant_is_alpha_on_whole_family(census):
 
 
 def test_pretzel_determinant_formula_holds_on_whole_family(census):
-    # det P(p1,p2,p3) = |p1p2 + p2p3 + p1p3| *(memory: Kawauchi, A Survey of Knot Theory, 1996)*
+    # det P(p1,p2,p3) = |p1p2 + p2p3 + p1p3| *(memory: Kawauchi, survey monograph, 1996)*
     r = check_claim(census, "determinant == abs(p1*p2 + p2*p3 + p1*p3)", family="pretzel")
     assert r.selected > 100 and r.held == r.selected and r.exit_code == 0
 

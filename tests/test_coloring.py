@@ -107,7 +107,7 @@ def test_determinant_of_two_bridge_is_alpha_for_every_alpha_up_to_99():
 
 
 def _pretzel_det(ps):
-    # Kawauchi, A Survey of Knot Theory (1996) (memory): det = |Σ_i Π_{j≠i} p_j|.
+    # Kawauchi, survey monograph (1996) (memory): det = |Σ_i Π_{j≠i} p_j|.
     return abs(sum(prod(ps[:i] + ps[i + 1:]) for i in range(len(ps))))
 
 

@@ -32,7 +32,7 @@ def test_fit_recovers_two_bridge_determinant_alpha(census):
 
 
 def test_fit_recovers_pretzel_determinant_as_absolute_value(census):
-    # det P(p1,p2,p3) = |p1p2 + p2p3 + p1p3| *(memory: Kawauchi, A Survey of Knot Theory, 1996)*
+    # det P(p1,p2,p3) = |p1p2 + p2p3 + p1p3| *(memory: Kawauchi, survey monograph, 1996)*
     names, (c,), _ = fit_family(census, "pretzel", "determinant")
     assert names == ["p1", "p2", "p3"]
     assert c.exact and c.squared and c.root is not None

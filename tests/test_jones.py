@@ -86,7 +86,7 @@ def slow_jones(diagram) -> Laurent:
 def determinant_by_sympy(diagram) -> int:
     """|det| of the colouring matrix with one row and column deleted (a knot).
 
-    R. H. Fox, "A quick trip through knot theory" (1962): rows 2·over − under₁ − under₂.
+    R. H. Fox, "A quick trip through ..." (survey article) (1962): rows 2·over − under₁ − under₂.
     """
     arc = diagram.arc_of_label
     n = diagram.n_crossings

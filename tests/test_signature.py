@@ -185,7 +185,7 @@ def test_two_bridge_goeritz_determinant_is_alpha_and_murasugi_mod_four(alpha):
 
 @pytest.mark.parametrize("entries", [(3, 5, 7), (-3, 5, 7), (3, 3, -3), (5, -3, 2), (2, 3, 3, 5)])
 def test_pretzel_goeritz_determinant_formula(entries):
-    # det P(p1..pk) = |Σ_i Π_{j≠i} p_j| *(memory: Kawauchi, A Survey of Knot Theory)*
+    # det P(p1..pk) = |Σ_i Π_{j≠i} p_j| *(memory: Kawauchi, survey monograph)*
     expected = 0
     for i in range(len(entries)):
         prod = 1

@@ -8,7 +8,7 @@ witness Fox p-colouring and its residue is written beside the arc number, so
 
 References
 ----------
-1. R. H. Fox, "A quick trip through knot theory", in *Topology of 3-manifolds and related
+1. R. H. Fox, "A quick trip through ..." (survey article), in *Topology of 3-manifolds and related
    topics*, Prentice-Hall (1962): p-colourings of a diagram's arcs.
 2. M. Okabe, K. Ito, "Color universal design" (2008): the eight-colour palette used for
    residues and components (distinguishable under the common colour-vision deficiencies).

@@ -24,7 +24,7 @@ References
 ----------
 1. J. W. Alexander, "Topological invariants of knots and links", Trans. AMS 30 (1928).
 2. R. H. Fox, "Free differential calculus I", Ann. of Math. 57 (1953); R. H. Crowell,
-   R. H. Fox, *Introduction to Knot Theory* (1963).
+   R. H. Fox, introductory textbook (1963).
 3. J. H. Conway, "An enumeration of knots and links, and some of their algebraic
    properties", in *Computational Problems in Abstract Algebra* (1970): the skein
    relation and the normalisation ∇.

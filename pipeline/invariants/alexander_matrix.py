@@ -22,7 +22,7 @@ References
 ----------
 1. J. W. Alexander, "Topological invariants of knots and links", Trans. AMS 30 (1928).
 2. R. H. Fox, "Free differential calculus I", Ann. of Math. 57 (1953);
-   R. H. Crowell, R. H. Fox, *Introduction to Knot Theory* (1963), ch. VII–VIII.
+   R. H. Crowell, R. H. Fox, introductory textbook (1963), ch. VII–VIII.
 3. H. M. Markowitz, "The elimination form of the inverse and its application to
    linear programming", Management Science 3 (1957).
 4. E. H. Bareiss, "Sylvester's identity and multistep integer-preserving Gaussian

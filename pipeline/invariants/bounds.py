@@ -23,7 +23,7 @@ Free loops count as split components: a diagram with free loops is not connected
 References
 ----------
 .. [1] L. H. Kauffman, "State models and the Jones polynomial", Topology 26 (1987);
-   K. Murasugi, "Jones polynomials and classical conjectures in knot theory",
+   K. Murasugi, "Jones polynomials and classical conjectures" (knots),
    Topology 26 (1987); M. B. Thistlethwaite, "A spanning tree expansion of the Jones
    polynomial", Topology 26 (1987).
 .. [2] J. Levine, "Polynomial invariants of knots of codimension two", Ann. of Math. 84 (1966).

@@ -21,9 +21,9 @@ The Smith form is computed by eliminating ±1 pivots sparsely (fewest fill-in fi
 
 References
 ----------
-1. R. H. Fox, "A quick trip through knot theory", in *Topology of 3-Manifolds and
+1. R. H. Fox, "A quick trip through ..." (survey article), in *Topology of 3-Manifolds and
    Related Topics*, Prentice-Hall (1962): colourings of arcs, 2·over = under_1 + under_2.
-2. R. H. Crowell, R. H. Fox, *Introduction to Knot Theory*, Ginn (1963): the
+2. R. H. Crowell, R. H. Fox, introductory textbook, Ginn (1963): the
    colouring (Alexander at t = −1) matrix and its elementary ideals.
 3. J. H. Przytycki, "3-coloring and other elementary invariants of knots", Banach
    Center Publ. 42 (1998): col_n = n · Π gcd(n, d_i) (cited from memory).
@@ -171,7 +171,7 @@ def invariant_factors(diagram: Diagram) -> tuple[int, ...]:
 
     References
     ----------
-    1. R. H. Crowell, R. H. Fox, *Introduction to Knot Theory* (1963).
+    1. R. H. Crowell, R. H. Fox, introductory textbook (1963).
     2. H. J. S. Smith, Phil. Trans. R. Soc. London 151 (1861).
     """
     diag, rank, ncols = _smith(diagram)
