@@ -80,7 +80,7 @@ def _batches(dataset, batch_rows: int) -> Iterator[list]:
 
 
 def knots_rows(directory: str | Path, build: Callable[[list[dict]], list[dict]], *,
-               batch_rows: int = 50_000) -> list[dict]:
+               batch_rows: int = 10_000) -> list[dict]:
     """Knots rows of a census directory, built batch by batch with ``build``."""
     import pyarrow.compute as pc
     import pyarrow.dataset as ds
