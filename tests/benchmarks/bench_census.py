@@ -14,7 +14,6 @@ from __future__ import annotations
 
 import argparse
 import json
-import math
 import os
 import subprocess
 import sys
@@ -57,20 +56,24 @@ length = 3
 fractions = ["1/3", "2/5", "-3/7", "3/4", "-2/9", "5/7"]
 """
 
-#: pretzel P(p1,p2,p3) with entries in [-k, k] \\ {0}: (2k)^3 rows, at most 3k crossings
+#: memory census: a file of n small diagrams (3-8 crossings, Rolfsen's table by Conway
+#: notation and small torus/pretzel/braid diagrams, cycled), so that 100k rows finish in
+#: minutes; the pipeline (work list, chunks, parts, manifest) is exactly the same.
 MEMORY_SPEC = """
 [census]
 name = "bench-memory-{n}"
 chunk_size = 256
 
 [[family]]
-kind = "pretzel"
-length = 3
-entries = [-{k}, {k}]
+kind = "file"
+path = "notebook.txt"
 """
+SMALL = ["conway:3", "conway:2 2", "conway:5", "conway:3 2", "conway:4 2", "conway:3 1 2",
+         "conway:2 1 1 2", "torus:2,7", "pretzel:-2,3,3", "braid:1,-2,1,-2,1,-2", "conway:7",
+         "conway:5 2", "conway:4 3", "conway:3 1 3", "torus:3,4", "pretzel:3,3,-3"]
 
 
-def tree_rss(proc: psutil.Process) -> int:
+def tree_rss(proc: psutil.Process, per: dict) -> int:
     total = 0
     try:
         procs = [proc] + proc.children(recursive=True)
@@ -78,7 +81,10 @@ def tree_rss(proc: psutil.Process) -> int:
         return 0
     for p in procs:
         try:
-            total += p.memory_info().rss
+            rss = p.memory_info().rss
+            total += rss
+            key = "parent" if p.pid == proc.pid else " ".join(p.cmdline()[-3:])[:60]
+            per[key] = max(per.get(key, 0), rss)
         except psutil.NoSuchProcess:
             pass
     return total
@@ -92,8 +98,12 @@ def committed_items(out: Path) -> int:
     return sum(e.get("items", 0) for e in m["chunks"].values())
 
 
-def run(spec_text: str, jobs: int, log) -> dict:
+def run(spec_text: str, jobs: int, log, lines: int = 0) -> dict:
     with tempfile.TemporaryDirectory() as tmp:
+        if lines:
+            with open(Path(tmp) / "notebook.txt", "w") as fh:
+                for i in range(lines):
+                    fh.write(SMALL[i % len(SMALL)] + "\n")
         spec = Path(tmp) / "spec.toml"
         spec.write_text(spec_text)
         out = Path(tmp) / "out"
@@ -101,9 +111,9 @@ def run(spec_text: str, jobs: int, log) -> dict:
         proc = subprocess.Popen([sys.executable, "-m", "pipeline", "run", str(spec), "--out", str(out),
                                  "--jobs", str(jobs), "--quiet"])
         ps = psutil.Process(proc.pid)
-        peak, curve, last = 0, [], 0.0
+        peak, curve, last, per = 0, [], 0.0, {}
         while proc.poll() is None:
-            peak = max(peak, tree_rss(ps))
+            peak = max(peak, tree_rss(ps, per))
             now = time.monotonic()
             if now - last > 30:
                 last = now
@@ -117,6 +127,7 @@ def run(spec_text: str, jobs: int, log) -> dict:
         n = committed_items(out)
         return {"jobs": jobs, "diagrams": n, "seconds": round(secs, 2),
                 "diagrams_per_s": round(n / secs, 2), "peak_rss_mb": round(peak / 2**20, 1),
+                "peak_rss_mb_per_process": {k: round(v / 2**20, 1) for k, v in per.items()},
                 "curve": curve}
 
 
@@ -144,8 +155,7 @@ def main() -> None:
             save(r)
     if not args.skip_memory:
         for n in (int(s) for s in args.sizes.split(",")):
-            k = math.ceil((n ** (1 / 3)) / 2)
-            r = run(MEMORY_SPEC.format(n=n, k=k), 2, save)
+            r = run(MEMORY_SPEC.format(n=n), 2, save, lines=n)
             r["target"] = n
             results["memory"].append(r)
             save(r)
