@@ -12,7 +12,9 @@ past its ``timeout`` gives up its remaining rows inside the worker; a worker tha
 does not come back ``timeout/2 + 5`` seconds after that is killed with its process,
 its chunk is committed with status ``skipped: chunk timeout`` rows, and the other
 chunks that were in flight are resubmitted.  A worker that dies (segfault, OOM) has
-its chunk retried alone once, then recorded as ``error: worker process died``.
+its chunk retried alone once, then recorded as ``error: worker process died``.  On a
+dask cluster only the in-worker timeout applies (threads cannot be killed; dask itself
+restarts dead worker processes).
 """
 
 from __future__ import annotations
