@@ -5,9 +5,9 @@ and it annotates each key with the other keys that share one of its fingerprints
 So the rows are split into *clusters*: connected components of the graph joining a
 knot key to the fingerprints of its rows (union-find over the distinct pairs, a
 structure the size of the number of knot types, not of the census).  Clusters are
-packed into batches of about ``batch_rows`` rows; each batch is read back from the
-Parquet parts with a column projection and a filter, handed to the classifier, and
-dropped.  Every knot key and every fingerprint lives in exactly one batch, so the
+packed into batches of about ``batch_rows`` rows; one streaming pass spills every row
+(needed columns only) to the Arrow file of its batch, and each batch file is then read,
+handed to the classifier, and deleted — two linear passes over the table in all.  Every knot key and every fingerprint lives in exactly one batch, so the
 result equals one call over all rows, while memory is bounded by the batch size
 (plus the largest cluster).
 """
@@ -81,21 +81,45 @@ def _batches(dataset, batch_rows: int) -> Iterator[list]:
 
 def knots_rows(directory: str | Path, build: Callable[[list[dict]], list[dict]], *,
                batch_rows: int = 10_000) -> list[dict]:
-    """Knots rows of a census directory, built batch by batch with ``build``."""
+    """Knots rows of a census directory, built batch by batch with ``build``.
+
+    Two passes over the diagrams table: the first finds the clusters; the second
+    spills each row (needed columns only) to the Arrow file of its batch under
+    ``DIR/_tmp/knots-build/``; then each batch file is read, classified and deleted.
+    """
+    import shutil
+    import pyarrow as pa
     import pyarrow.compute as pc
     import pyarrow.dataset as ds
     from schemas.tables import DIAGRAMS
-    dataset = ds.dataset(str(Path(directory) / "diagrams"), format="parquet", schema=DIAGRAMS)
-    out: list[dict] = []
-    for keys in _batches(dataset, batch_rows):
-        named = [k for k in keys if k is not None]
-        cond = pc.field("knot_key").isin(named)
-        if len(named) < len(keys):
-            cond = cond | pc.field("knot_key").is_null()
-        rows = dataset.to_table(columns=COLUMNS, filter=cond).to_pylist()
-        for r in rows:
-            r["extras"] = _slim(r["extras"])
-        rows.sort(key=lambda r: r["row_id"])
-        out.extend(build(rows))
-        del rows
-    return out
+    directory = Path(directory)
+    dataset = ds.dataset(str(directory / "diagrams"), format="parquet", schema=DIAGRAMS)
+    batch_of = {key: b for b, keys in enumerate(_batches(dataset, batch_rows)) for key in keys}
+    spill = directory / "_tmp" / "knots-build"
+    shutil.rmtree(spill, ignore_errors=True)
+    spill.mkdir(parents=True)
+    writers: dict = {}
+    try:
+        for rb in dataset.to_batches(columns=COLUMNS):
+            ids = pa.array([batch_of[k] for k in rb.column("knot_key").to_pylist()], pa.int32())
+            for b in sorted(set(ids.to_pylist())):
+                if b not in writers:
+                    writers[b] = pa.ipc.new_file(str(spill / f"batch-{b}.arrow"), rb.schema)
+                writers[b].write_batch(rb.filter(pc.equal(ids, b)))
+        for w in writers.values():
+            w.close()
+        out: list[dict] = []
+        for b in sorted(writers):
+            path = spill / f"batch-{b}.arrow"
+            with pa.memory_map(str(path)) as src:
+                rows = pa.ipc.open_file(src).read_all().to_pylist()
+            for r in rows:
+                r["extras"] = _slim(r["extras"])
+            rows.sort(key=lambda r: r["row_id"])
+            out.extend(build(rows))
+            del rows
+            path.unlink()
+            pa.default_memory_pool().release_unused()
+        return out
+    finally:
+        shutil.rmtree(spill, ignore_errors=True)
