@@ -11,9 +11,9 @@ fi
 KL=.venv/bin/knotledger
 OUT=${1:-demo_out}
 if [ -f "$OUT/manifest.json" ]; then
-  $KL run data_demo/census.toml --out "$OUT" --jobs 2 --resume
+  $KL run data_demo/saltmarsh_sevens.toml --out "$OUT" --jobs 2 --resume
 else
-  $KL run data_demo/census.toml --out "$OUT" --jobs 2
+  $KL run data_demo/saltmarsh_sevens.toml --out "$OUT" --jobs 2
 fi
 echo
 echo "== diagrams and knot types per family"
