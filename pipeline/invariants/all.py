@@ -43,8 +43,14 @@ def _attempt(problems: list[str], timings: dict, name: str, fn: Callable[[], Any
 
 
 def compute_all(diagram: Diagram, *, max_modulus: int = 16, jones_budget: Optional[int] = None,
-                min_colors_budget: Optional[int] = None) -> dict:
+                min_colors_budget: Optional[int] = None, notation: Optional[str] = None) -> dict:
     """Every invariant of ``diagram`` as a dict (the census row before storage).
+
+    ``notation``, when given, must be the string ``diagram`` was parsed from; for the
+    tangle families (``conway``, ``rational``, ``pretzel``, ``montesinos``) the Jones
+    polynomial is then taken from the linear-time bracket of rational tangles
+    (:mod:`pipeline.invariants.bracket_fast`), which the tests cross-check against
+    the general frontier programme.
 
     Keys: ``crossings``, ``components``, ``free_loops``, ``writhe``, ``alternating``,
     ``determinant``, ``invariant_factors``, ``colorings`` ({n: count}),
@@ -103,7 +109,7 @@ def compute_all(diagram: Diagram, *, max_modulus: int = 16, jones_budget: Option
     row["jones"] = None
     if jones is not None:
         row["jones"] = _attempt(problems, timings, "jones",
-                                lambda: jones.jones_polynomial(diagram, budget=jones_budget))
+                                lambda: _jones(jones, diagram, notation, jones_budget))
 
     signature = _optional_module("signature")
     row["signature"] = row["nullity"] = None
@@ -131,6 +137,16 @@ def compute_all(diagram: Diagram, *, max_modulus: int = 16, jones_budget: Option
     row["status"] = "; ".join(problems) if problems else "ok"
     row["timings"] = timings
     return row
+
+
+def _jones(jones, diagram: Diagram, notation: Optional[str], budget: Optional[int]):
+    """Jones by the tangle route when the notation allows it, else the frontier programme."""
+    if notation is not None and budget != 0:
+        from .bracket_fast import bracket_of_notation
+        bracket = bracket_of_notation(notation)
+        if bracket is not None:
+            return jones.jones_from_bracket(bracket, diagram.writhe)
+    return jones.jones_polynomial(diagram, budget=budget)
 
 
 def _optional_module(name: str):

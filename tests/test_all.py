@@ -1,0 +1,50 @@
+"""compute_all: one census row, each invariant isolated; the tangle route for Jones."""
+
+from __future__ import annotations
+
+import pytest
+
+from pipeline import parse
+from pipeline.invariants import all as all_mod
+from pipeline.invariants.all import compute_all
+from slow_routes import state_sum_jones
+
+
+@pytest.mark.parametrize("text", ["conway:3 1 2", "rational:13/5", "pretzel:-2,3,3", "pretzel:3,0,3",
+                                  "montesinos:1/3,-2/5,1/2", "pretzel:2,2,-2", "rational:14/3"])
+def test_tangle_route_equals_general_route_and_state_sum(text):
+    d = parse(text)
+    fast = compute_all(d, notation=text)["jones"]
+    general = compute_all(d)["jones"]
+    assert fast == general == state_sum_jones(d)   # Kauffman, Topology 26 (1987): all-states sum
+
+
+def test_trefoil_row_values():
+    row = compute_all(parse("torus:2,3"))
+    # DESIGN contract / common practice: det 3, 9 three-colourings, σ = −2, V = t + t³ − t⁴
+    assert row["determinant"] == 3 and row["invariant_factors"] == [3]
+    assert row["colorings"][3] == 9 and row["colorable_moduli"][:1] == [3]
+    assert row["signature"] == -2
+    assert row["jones"].to_json() == [[1, 1], [3, 1], [4, -1]]
+    assert row["chirality"] == "chiral (jones)"
+    assert row["status"] == "ok" and row["checks"] and not row["checks_failed"]
+
+
+def test_budget_overrun_keeps_the_rest_of_the_row():
+    row = compute_all(parse("torus:5,12"), jones_budget=3)
+    assert row["jones"] is None
+    assert "skipped: jones budget 3" in row["status"]
+    assert row["determinant"] == 5    # T(5,12): q even, so det is the odd parameter 5 (Rolfsen ch. 7)
+
+
+def test_a_failing_invariant_is_recorded_not_raised(monkeypatch):
+    from pipeline.invariants import signature
+
+    def broken(diagram):
+        raise RuntimeError("deliberately broken")
+
+    monkeypatch.setattr(signature, "signature", broken)
+    row = compute_all(parse("conway:2 2"))
+    assert row["signature"] is None
+    assert "error in signature: RuntimeError: deliberately broken" in row["status"]
+    assert row["determinant"] == 5 and row["jones"] is not None
