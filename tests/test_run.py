@@ -313,3 +313,15 @@ def test_knots_table_built_in_small_batches_equals_one_batch(reference):
     key = lambda r: r["knot_key"]  # noqa: E731
     assert sorted(one, key=key) == sorted(many, key=key)
     assert [k["knot_key"] for k in c["knots"]] == sorted(k["knot_key"] for k in one)
+
+
+def test_resume_keeps_command_line_budgets_and_refuses_different_ones(tmp_path):
+    from pipeline.errors import KnotLedgerError
+    spec = tmp_path / "census.toml"
+    spec.write_text('[census]\nmax_modulus = 3\n[[family]]\nkind = "two_bridge"\nalpha = [3, 5]\n')
+    out = tmp_path / "out"
+    run_census(load_spec(spec), out, overrides={"timeout": 50.0}, quiet=True)
+    m = run_census(load_spec(spec), out, resume=True, quiet=True)  # no flag: the 50 s stay
+    assert m["census"]["options"]["timeout"] == 50.0
+    with pytest.raises(KnotLedgerError, match="options differs"):
+        run_census(load_spec(spec), out, resume=True, overrides={"timeout": 5.0}, quiet=True)

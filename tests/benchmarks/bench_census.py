@@ -26,33 +26,38 @@ import psutil
 RATE_SPEC = """
 [census]
 name = "bench-rate"
-chunk_size = 64
+chunk_size = 128
 
 [[family]]
 kind = "pretzel"
 length = 3
-entries = [5, 15]
+entries = [5, 20]
+
+[[family]]
+kind = "pretzel"
+length = 4
+entries = [3, 8]
 
 [[family]]
 kind = "two_bridge"
-alpha = [60, 90]
+alpha = [60, 160]
 
 [[family]]
 kind = "torus"
-p = [2, 5]
-q = [5, 20]
+p = [2, 7]
+q = [3, 30]
 
 [[family]]
 kind = "braid"
 word = "1^a -2^b 1^c -2^d"
-a = [2, 6]
-b = [2, 6]
-c = [2, 6]
-d = [2, 6]
+a = [1, 8]
+b = [1, 8]
+c = [1, 8]
+d = [1, 8]
 
 [[family]]
 kind = "montesinos"
-length = 3
+length = 4
 fractions = ["1/3", "2/5", "-3/7", "3/4", "-2/9", "5/7"]
 """
 
