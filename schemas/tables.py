@@ -86,6 +86,7 @@ KNOTS = pa.schema([
     _f("knot_key", pa.string(), False),
     _f("representative", pa.string()),
     _f("n_diagrams", pa.int64(), False),
+    _f("n_distinct_diagrams", pa.int64()),
     _f("proof", pa.string()),
     _f("mirror_key", pa.string()),
     _f("amphichiral", pa.bool_()),
@@ -93,6 +94,8 @@ KNOTS = pa.schema([
     _f("min_crossings_seen", pa.int32()),
     _f("crossing_number", pa.int32()),
     _f("crossing_number_source", pa.string()),
+    _f("fingerprint_shared_with", pa.list_(pa.string())),
+    _f("distinctness_note", pa.string()),
     _f("extras", pa.string()),
 ])
 
