@@ -71,6 +71,17 @@ def _read_table(directory: Path, table: str):
     return merged.to_pandas(types_mapper=_nullable_types)
 
 
+def _mark_duplicates(diagrams) -> None:
+    """Add ``duplicate_of``: the row_id of the first row with the same diagram_id (else NA),
+    the same computed column as the SQL view in :mod:`pipeline.query`."""
+    if diagrams.empty or "diagram_id" not in diagrams:
+        return
+    import pandas as pd
+    first = diagrams.groupby("diagram_id", dropna=True)["row_id"].transform("min")
+    dup = first.where(first < diagrams["row_id"])
+    diagrams["duplicate_of"] = dup.astype(pd.Int64Dtype())
+
+
 def _nullable_types(arrow_type):
     import pandas as pd
     import pyarrow as pa
@@ -127,6 +138,7 @@ def open_census(directory: str | Path) -> Census:
     """
     path = census_path(directory)
     frames = {t: _read_table(path, t) for t in TABLES}
+    _mark_duplicates(frames["diagrams"])
     manifest: dict = {}
     mpath = path / "manifest.json"
     if mpath.is_file():

@@ -40,6 +40,14 @@ __all__ = ["FORMATS", "check_read_only", "connect", "run_query", "format_result"
 FORMATS = ("table", "csv", "json", "latex")
 
 
+#: computed columns added to the views: ``duplicate_of`` is the row_id of the first row of
+#: the census with the same diagram_id (the same diagram up to relabelling; null for the first)
+_VIEW_COLUMNS = {
+    "diagrams": "*, CASE WHEN diagram_id IS NOT NULL AND min(row_id) OVER (PARTITION BY diagram_id) < row_id "
+                "THEN min(row_id) OVER (PARTITION BY diagram_id) END AS duplicate_of",
+}
+
+
 def check_read_only(sql: str) -> str:
     """Return the single SELECT statement of ``sql``, or raise :class:`QueryError`.
 
@@ -87,7 +95,7 @@ def connect(directory: str | Path):
         files = table_files(path, table)
         if files:
             source = f"read_parquet({_sql_string(str(path / table) + '/*.parquet')}, union_by_name = true)"
-            con.execute(f"CREATE VIEW {table} AS SELECT * FROM {source}")
+            con.execute(f"CREATE VIEW {table} AS SELECT {_VIEW_COLUMNS.get(table, '*')} FROM {source}")
     con.execute("SET lock_configuration = true")
     return con
 

@@ -81,16 +81,22 @@ def diagram_row_skeleton(item, d=None) -> dict:
            "params": item.params, "labels": item.labels, "source": item.source,
            "notation": item.notation, "diagram_id": None, "crossings": None,
            "components": None, "free_loops": None, "writhe": None}
+    row["mirror_by_convention"] = _mirror_by_convention(item.notation)
     if d is not None:
         row.update(diagram_id=_diagram_id(d), crossings=d.n_crossings,
                    components=d.n_components, free_loops=d.free_loops, writhe=d.writhe)
     return row
 
 
-def _invariants(d, opts: dict) -> dict:
+def _mirror_by_convention(notation: str) -> bool:
+    """True for DT codes: they fix a knot only up to mirror image (see pipeline.dt)."""
+    return notation.strip().lower().startswith("dt:")
+
+
+def _invariants(d, opts: dict, notation: str) -> dict:
     from .invariants.all import compute_all
     return compute_all(d, max_modulus=opts["max_modulus"], jones_budget=opts.get("jones_budget"),
-                       min_colors_budget=opts.get("min_colors_budget"))
+                       min_colors_budget=opts.get("min_colors_budget"), notation=notation)
 
 
 def _fill(row: dict, inv: dict) -> list[dict]:
@@ -167,7 +173,7 @@ def _one(item, opts: dict, out: dict) -> None:
     row["status"] = "error: row not finished"
     try:
         _test_hooks(item)
-        inv = _invariants(d, opts)
+        inv = _invariants(d, opts, item.notation)
         out["colorings"].extend(_fill(row, inv))
         _knot_key(row, inv, d)
     except (ChunkTimeout, KeyboardInterrupt, SystemExit):

@@ -45,6 +45,7 @@ DIAGRAMS = pa.schema([
     _f("labels", pa.string()),
     _f("source", pa.string()),
     _f("notation", pa.string(), False),
+    _f("mirror_by_convention", pa.bool_()),
     _f("crossings", pa.int32()),
     _f("components", pa.int32()),
     _f("free_loops", pa.int32()),

@@ -1,0 +1,56 @@
+"""Whole-pipeline details that span modules: duplicate diagrams, DT rows, show on a census row."""
+
+from __future__ import annotations
+
+import json
+from pathlib import Path
+
+import pipeline
+from pipeline.cli import main as cli_main
+
+SPEC = """
+[census]
+name = "integration"
+max_modulus = 7
+chunk_size = 3
+
+[[family]]
+kind = "file"
+path = "typed.txt"
+"""
+
+TYPED = """pretzel:3,5,7
+pretzel:5,7,3
+pd:[[1,5,2,4],[3,1,4,6],[5,3,6,2]]
+pd:[[4,2,5,1],[2,6,3,5],[6,4,1,3]]
+dt:4 6 2
+pretzel:3,5,-7
+"""
+
+
+def _census(tmp_path: Path) -> Path:
+    (tmp_path / "spec.toml").write_text(SPEC)
+    (tmp_path / "typed.txt").write_text(TYPED)
+    out = tmp_path / "out"
+    assert cli_main(["run", str(tmp_path / "spec.toml"), "--out", str(out), "--jobs", "1", "--quiet"]) == 0
+    return out
+
+
+def test_duplicates_and_dt_rows_are_marked(tmp_path, capsys):
+    out = _census(tmp_path)
+    census = pipeline.open_census(out)
+    d = census.diagrams.set_index("row_id")
+    # P(3,5,7) and P(5,7,3) are the same diagram on the sphere (a rotation of the columns)
+    assert str(d.loc[0, "duplicate_of"]) == "<NA>" and d.loc[1, "duplicate_of"] == 0
+    # the DESIGN example trefoil and torus:2,3 as built by the braid builder: same diagram, relabelled
+    assert d.loc[3, "duplicate_of"] == 2
+    # dt:4 6 2 realises the same 3-crossing diagram (with the convention's mirror choice)
+    assert d.loc[4, "duplicate_of"] == 2
+    # P(3,5,-7) is a different diagram
+    assert str(d.loc[5, "duplicate_of"]) == "<NA>"
+    assert bool(d.loc[4, "mirror_by_convention"]) and not bool(d.loc[0, "mirror_by_convention"])
+    capsys.readouterr()
+    assert cli_main(["query", str(out), "SELECT row_id, duplicate_of FROM diagrams ORDER BY row_id",
+                     "--format", "json"]) == 0
+    rows = json.loads(capsys.readouterr().out)
+    assert [r["duplicate_of"] for r in rows] == [None, 0, None, 2, 2, None]
