@@ -20,6 +20,8 @@ classifier.
 
 References
 ----------
+0. H. R. Morton, "The Jones polynomial for unoriented links", Quart. J. Math. Oxford
+   37 (1986): reversing a sublink K multiplies V by t^(−3 lk(K, L−K)) *(memory)*.
 1. V. F. R. Jones, "Hecke algebra representations of braid groups and link
    polynomials", Ann. of Math. 126 (1987): V of the mirror image is V(1/t).
 2. K. Murasugi, "On a certain numerical invariant of link types", Trans. AMS 117
@@ -32,7 +34,6 @@ from itertools import combinations
 from typing import Any, Iterable, Optional
 
 from ..diagram import Diagram
-from ..errors import BudgetExceeded
 from ..poly import Laurent
 
 __all__ = ["chirality", "reverse_components", "orientation_values"]
@@ -89,21 +90,35 @@ def reverse_components(diagram: Diagram, which: Iterable[int]) -> Diagram:
     return Diagram.from_pd(pd, free_loops=diagram.free_loops)
 
 
-def orientation_values(diagram: Diagram, *, jones: bool = True, signature: bool = True,
-                       budget: Optional[int] = None) -> set[tuple]:
-    """{(V or None, σ or None)} over the orientations reversing subsets of components 1..c−1."""
-    from . import signature as sig_mod
-    jones_mod = None
-    if jones:
-        from . import jones as jones_mod
-    k = len(diagram.components)
+def orientation_values(diagram: Diagram, *, jones: Optional[Laurent] = None,
+                       signature: Optional[int] = None) -> set[tuple]:
+    """{(V or None, σ or None)} over the orientations reversing subsets of components 1..c−1.
+
+    Reversing a sublink K of L changes the values by its linking number with the rest,
+    λ = lk(K, L − K) (taken in the diagram's orientation):
+    V ↦ t^(−3λ)·V (Morton's reversal formula) and σ ↦ σ + 2λ (Murasugi 1965), so
+    no other orientation has to be recomputed; the tests compare both formulas with
+    recomputation on reoriented diagrams.
+
+    ``jones`` and ``signature`` are this diagram's values (None: not used).
+    """
+    comps = diagram.components
+    k = len(comps)
+    comp_of = diagram.component_of_label
+    lk2 = [[0] * k for _ in range(k)]     # 2·lk between components
+    for i, x in enumerate(diagram.pd):
+        u, w = comp_of[x[0]], comp_of[x[1]]
+        if u != w:
+            lk2[u][w] += diagram.signs[i]
+            lk2[w][u] += diagram.signs[i]
     out = set()
     for r in range(k):
         for subset in combinations(range(1, k), r):
-            d = reverse_components(diagram, subset)
-            v = jones_mod.jones_polynomial(d, budget=budget) if jones_mod else None
-            s = sig_mod.signature(d) if signature else None
-            out.add((v, s))
+            rest = [j for j in range(k) if j not in subset]
+            lam = sum(lk2[i][j] for i in subset for j in rest) // 2
+            v = None if jones is None else jones.shift(-6 * lam)
+            sg = None if signature is None else signature + 2 * lam
+            out.add((v, sg))
     return out
 
 
@@ -122,9 +137,9 @@ def chirality(diagram: Diagram, values: dict[str, Any], *, budget: Optional[int]
         ``signature`` (int or None).  For links the other orientations are computed
         here (Jones only when ``values['jones']`` was computed).
     budget : int, optional
-        Jones budget for the other orientations of a link (as for
-        :func:`pipeline.invariants.jones.jones_polynomial`); if one of them exceeds
-        it, only the signatures are compared.
+        Accepted for symmetry with the other invariants and unused: the other
+        orientations' values follow from the linking numbers (see
+        :func:`orientation_values`), so nothing is recomputed.
 
     Returns
     -------
@@ -141,7 +156,7 @@ def chirality(diagram: Diagram, values: dict[str, Any], *, budget: Optional[int]
     s: Optional[int] = values.get("signature")
     if len(diagram.components) <= 1:  # a knot (free loops only: the unknot/unlink family)
         if diagram.free_loops and diagram.components:
-            return _link_verdict(diagram, v, s, budget)
+            return _link_verdict(diagram, v, s)
         if v is not None and v != v.invert():
             return "chiral (jones)", "V(t) != V(1/t)"
         if s is not None and s != 0:
@@ -150,21 +165,14 @@ def chirality(diagram: Diagram, values: dict[str, Any], *, budget: Optional[int]
         if not done:
             return "unknown", "jones and signature not computed"
         return "unknown", f"{' and '.join(done)} {'agree' if len(done) > 1 else 'agrees'} with the mirror"
-    return _link_verdict(diagram, v, s, budget)
+    return _link_verdict(diagram, v, s)
 
 
-def _link_verdict(diagram: Diagram, v: Optional[Laurent], s: Optional[int],
-                  budget: Optional[int]) -> tuple[str, str]:
+def _link_verdict(diagram: Diagram, v: Optional[Laurent], s: Optional[int]) -> tuple[str, str]:
     use_jones, use_sig = v is not None, s is not None
     if not (use_jones or use_sig):
         return "unknown", "jones and signature not computed"
-    try:
-        vals = orientation_values(diagram, jones=use_jones, signature=use_sig, budget=budget)
-    except BudgetExceeded:
-        if not use_sig:
-            return "unknown", "jones of the other orientations over budget; signature not computed"
-        use_jones = False
-        vals = orientation_values(diagram, jones=False, signature=True)
+    vals = orientation_values(diagram, jones=v, signature=s)
     mirrored = _mirror_values(vals)
     n = 2 ** max(len(diagram.components) - 1, 0)
     if use_jones and {x for x, _ in vals} != {x for x, _ in mirrored}:
