@@ -5,7 +5,7 @@ four slots numbered counterclockwise, say which slot pair is the over-strand, an
 wire slots together (possibly through crossingless pass-through *wires*).  The
 builder then walks every component, numbers the edges consecutively along it and
 rotates each crossing tuple to start at its incoming under-strand, which yields a
-PD code in the contract convention (DESIGN.md) whose handedness is the geometric
+PD code in the contract convention (README.md) whose handedness is the geometric
 one of the construction.
 
 The tangle layer implements Conway's tangle calculus on 4-ended tangles with ends

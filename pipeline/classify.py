@@ -105,7 +105,7 @@ def _from_params(row: dict) -> tuple[str, str]:
 
 
 def _torus_braid(word: list[int]) -> Optional[NormalForm]:
-    """(σ1⋯σ_{p−1})^q with one sign is T(p, ±q) (DESIGN.md, torus notation)."""
+    """(σ1⋯σ_{p−1})^q with one sign is T(p, ±q) (README.md, torus notation)."""
     if not word:
         return None
     n1 = max(abs(g) for g in word)
@@ -165,7 +165,7 @@ def knot_key(row: dict) -> dict:
         ``knot_key``, ``mirror_key``, ``proof`` (``normal form`` / ``fingerprint only``),
         ``amphichiral`` (True / False / None), ``amphichiral_reason``, ``crossing_number``
         (certified or None), ``crossing_number_source``, ``fingerprint``; and, when a
-        normal form decides, ``chirality`` / ``chirality_reason`` in the DESIGN.md
+        normal form decides, ``chirality`` / ``chirality_reason`` in the README.md
         vocabulary (``amphichiral (normal form)`` / ``chiral (normal form)``).
 
     Examples
@@ -234,7 +234,7 @@ def _comparable(row: dict) -> dict:
 
 
 def build_knots_table(rows: list[dict]) -> list[dict]:
-    """One row per knot key (see DESIGN.md ``knots``) from diagram rows carrying keys.
+    """One row per knot key (see README.md ``knots``) from diagram rows carrying keys.
 
     Each input row needs ``row_id``, ``notation``, ``crossings``, ``components``, the
     invariants, and the :func:`knot_key` fields (``proof`` may be named ``knot_proof``);
@@ -244,7 +244,7 @@ def build_knots_table(rows: list[dict]) -> list[dict]:
     Returns
     -------
     list of dict
-        Sorted by key, with the DESIGN.md columns ``knot_key``, ``representative``
+        Sorted by key, with the README.md columns ``knot_key``, ``representative``
         (notation of the row with fewest crossings, ties by row_id), ``n_diagrams``,
         ``proof``, ``mirror_key``, ``amphichiral`` (True / False / None),
         ``amphichiral_reason``, ``min_crossings_seen``, ``crossing_number``,
@@ -353,7 +353,7 @@ def _distinctness_note(row: dict, shared: list[str], proofs: dict[str, str]) -> 
                      "(these invariants cannot separate them, e.g. mutants)")
     if other:
         parts.append("distinctness from " + ", ".join(other) + " not proven (same invariants, "
-                     "normal forms of different families; only the coincidences of REFERENCES item 5 are known)")
+                     "normal forms of different families; only the coincidences of tests/SOURCES.md, families item 5 are known)")
     if fp_only:
         parts.append("possibly the same type as " + ", ".join(fp_only) + " (fingerprint-only rows)")
     return "; ".join(parts)

@@ -1,7 +1,7 @@
 """The ``knotledger`` command: one subcommand per module, dispatched here.
 
 Each subcommand module provides ``add_arguments(parser)`` and ``main(args) -> int``.
-Exit codes (DESIGN.md, contract): 0 success, 1 checked and found false, 2 bad input
+Exit codes (README.md, contract): 0 success, 1 checked and found false, 2 bad input
 or usage.  Errors are one line on stderr, never a traceback.
 """
 

@@ -1,6 +1,6 @@
 """The one core type: an oriented link diagram given by a PD code.
 
-PD convention (DESIGN.md, contract): edges carry positive integer labels, each on
+PD convention (README.md, contract): edges carry positive integer labels, each on
 exactly two crossing slots; along every component the labels are consecutive in the
 direction of orientation (wrapping within the component).  A crossing is a 4-tuple
 ``(a, b, c, d)`` listed counterclockwise starting at the incoming under-strand ``a``

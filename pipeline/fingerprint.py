@@ -30,7 +30,7 @@ __all__ = ["fingerprint", "mirror_fingerprint", "jones_orientation_set", "MAX_OR
 
 MAX_ORIENTATION_COMPONENTS = 10
 def _poly(v: Any) -> Optional[list]:
-    """A polynomial in DESIGN.md JSON form, from a Laurent, a JSON list or JSON text."""
+    """A polynomial in README.md JSON form, from a Laurent, a JSON list or JSON text."""
     if v is None:
         return None
     if isinstance(v, Laurent):

@@ -16,7 +16,7 @@ knot summands G_i are listed as K1#K2, or ``O`` for an unknotted component; the 
 is read in the smaller of its two directions);
 ``split:A + B + ...`` (split union, pieces sorted).
 
-Conventions of this code base (pinned in DESIGN.md and verified with the Jones
+Conventions of this code base (pinned in README.md and verified with the Jones
 polynomial in tests/test_classify.py): ``rational:α/β`` is b(α, β) = N(T(α/β)) and
 ``rational:3/1`` = ``torus:2,3`` is the positive trefoil.  The Montesinos/pretzel
 crossing picture is the mirror of the two-bridge one, so a Montesinos tangle
@@ -40,7 +40,7 @@ Theorems used
   With at most two non-integral tangles the link is two-bridge; we reduce it by moving
   twists from one tangle to the other (N(A + H_c S) = N(H_c A + S), likewise for
   vertical twists), which acts on the fraction (p, q) by (p + cq, q) and (p, q + cp).
-* Published coincidences (REFERENCES item 5): P(−2,3,3) = T(3,4), P(−2,3,5) = T(3,5):
+* Published coincidences (tests/SOURCES.md, families item 5): P(−2,3,3) = T(3,4), P(−2,3,5) = T(3,5):
   those Montesinos classes are mapped to the torus keys.  Other elliptic Montesinos
   links might be torus links (e.g. types (2,2,n) against T(3,3)); no such coincidence
   is claimed and none is keyed.

@@ -1,4 +1,4 @@
-"""Parse and format diagram strings ``KIND:ARGS`` (DESIGN.md, contract).
+"""Parse and format diagram strings ``KIND:ARGS`` (README.md, contract).
 
 =================================  ================================================
 ``pd:[[1,5,2,4],[3,1,4,6],...]``   PD code (JSON); ``pd:[...] loops=k`` adds k free loops

@@ -2,7 +2,7 @@
 
 Exponents are stored doubled (``2·e``) so half-integer exponents of the Jones
 polynomial of a link with an even number of components stay integers.  JSON form
-(DESIGN.md, contract): a list of ``[exponent, coefficient]`` pairs sorted by
+(README.md, contract): a list of ``[exponent, coefficient]`` pairs sorted by
 exponent, nonzero coefficients only; an exponent is an int, or a float ``k + 0.5``
 for half-integers; coefficients are always Python ints.
 """

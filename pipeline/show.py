@@ -9,7 +9,7 @@ used by a nontrivial p-colouring of this diagram.  Whatever else
 :func:`pipeline.invariants.all.compute_all` returns (polynomials, signature,
 chirality, checks, ...) is printed after that.
 
-``--json`` prints one object (DESIGN.md, contract): at least ``crossings``,
+``--json`` prints one object (README.md, contract): at least ``crossings``,
 ``components``, ``writhe``, ``determinant``, ``invariant_factors``, ``colorings``
 (modulus as a string -> count) plus every other key of the census row; polynomials
 in the ``[[exponent, coefficient], ...]`` form; every integer exact.

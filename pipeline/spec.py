@@ -1,6 +1,6 @@
 """Census spec files (TOML) and the deterministic work list they describe.
 
-A spec names families of diagrams and the census options (DESIGN.md, "Spec file")::
+A spec names families of diagrams and the census options (README.md, "Spec file")::
 
     [census]
     name = "harbour-street-pretzels"

@@ -1,6 +1,6 @@
 """The census directory: Parquet parts committed atomically, recorded in a manifest.
 
-Layout (DESIGN.md, "Store layout")::
+Layout (README.md, "Store layout")::
 
     DIR/manifest.json                      the census (or manifest.shard-I-of-N.json)
     DIR/diagrams/part-schema.parquet       zero rows, carries the schema (always there)

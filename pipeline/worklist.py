@@ -35,7 +35,7 @@ class WorkItem(NamedTuple):
 
 def pretzel_is_knot(entries: tuple[int, ...]) -> bool:
     """P(p1..pk) is a knot iff exactly one p_i is even, or k and every p_i are odd
-    (common practice; REFERENCES.md §3 — a zero entry counts as even)."""
+    (common practice; tests/SOURCES.md §3 — a zero entry counts as even)."""
     even = sum(1 for p in entries if p % 2 == 0)
     return even == 1 or (even == 0 and len(entries) % 2 == 1)
 

@@ -5,7 +5,7 @@ schema=SCHEMAS[table])`` so a column that is not declared here cannot be written
 value of the wrong type is an error at write time, not a surprise at query time.
 schemas/README.md documents every column, its type and its exactness choice.
 
-Exactness (DESIGN.md): an integer that can outgrow int64 (determinants, invariant
+Exactness (README.md): an integer that can outgrow int64 (determinants, invariant
 factors, colouring counts) is stored twice — an int64 column that SQL can filter on
 (null when the value does not fit) beside a decimal text column that is always exact.
 Polynomials are stored as the contract JSON text (``[[exponent, coefficient], ...]``)

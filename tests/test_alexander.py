@@ -64,7 +64,7 @@ def z_to_minus_z(p: Laurent) -> Laurent:
 # ----------------------------------------------------------------- named values
 
 NAMED = {
-    # DESIGN.md normalisation; REFERENCES.md (Rolfsen, Knots and Links, table *(memory)*)
+    # README.md normalisation; SOURCES.md (Rolfsen, Knots and Links, table *(memory)*)
     "torus:2,3": Laurent({-2: 1, 0: -1, 2: 1}),              # trefoil t − 1 + t⁻¹
     "torus:-2,3": Laurent({-2: 1, 0: -1, 2: 1}),             # its mirror, same Δ
     "conway:2 2": Laurent({-2: -1, 0: 3, 2: -1}),            # figure-eight −t + 3 − t⁻¹
@@ -135,7 +135,7 @@ ALPHA_BETA = [(a, b) for a in range(2, 41) for b in range(1, a) if gcd(a, b) == 
 
 @pytest.mark.parametrize("alpha", range(2, 41))
 def test_two_bridge_alexander_at_minus_one_is_alpha(alpha):
-    # |Δ(−1)| = det b(α,β) = α (Schubert, Math. Z. 65 (1956); REFERENCES.md item 1)
+    # |Δ(−1)| = det b(α,β) = α (Schubert, Math. Z. 65 (1956); SOURCES.md item 1)
     for a, b in ALPHA_BETA:
         if a != alpha:
             continue
@@ -165,15 +165,15 @@ def test_conway_table_determinants(name):
 
 
 @pytest.mark.parametrize("text, det", [
-    ("torus:3,4", 3), ("torus:3,5", 1),        # 8_19 det 3, 10_124 det 1 (REFERENCES *(memory)*)
-    ("pretzel:-2,3,3", 3), ("pretzel:-2,3,5", 1),   # = T(3,4), T(3,5) (REFERENCES item 5)
+    ("torus:3,4", 3), ("torus:3,5", 1),        # 8_19 det 3, 10_124 det 1 (SOURCES.md *(memory)*)
+    ("pretzel:-2,3,3", 3), ("pretzel:-2,3,5", 1),   # = T(3,4), T(3,5) (SOURCES.md item 5)
 ])
 def test_more_table_determinants(text, det):
     assert norm(at_minus_one(alexander_polynomial(parse(text)))) == det * det
 
 
 def test_pretzel_coincidences_with_torus_knots():
-    # P(−2,3,3) = T(3,4), P(−2,3,5) = T(3,5), P(p,q) = T(2,p+q) (REFERENCES item 5)
+    # P(−2,3,3) = T(3,4), P(−2,3,5) = T(3,5), P(p,q) = T(2,p+q) (SOURCES.md item 5)
     A = lambda s: alexander_polynomial(parse(s))
     assert A("pretzel:-2,3,3") == A("torus:3,4")
     assert A("pretzel:-2,3,5") == A("torus:3,5")
@@ -198,7 +198,7 @@ def test_knot_alexander_is_symmetric_with_value_one_at_one(text):
                                   "torus:2,4", "rational:8/3", "torus:3,3", "pretzel:2,2,2",
                                   "braid:1,-2,1,-2,1,-2", "pretzel:2,-4,3"])
 def test_mirror_sends_z_to_minus_z(text):
-    # ∇(mirror L)(z) = ∇(L)(−z); for knots Δ(mirror) = Δ (common practice; REFERENCES)
+    # ∇(mirror L)(z) = ∇(L)(−z); for knots Δ(mirror) = Δ (common practice; SOURCES.md)
     d = parse(text)
     assert conway_polynomial(d.mirror()) == z_to_minus_z(conway_polynomial(d))
     if d.n_components == 1:
@@ -223,7 +223,7 @@ def test_first_conway_coefficient_of_two_component_link_is_linking_number(alpha)
 
 
 def test_determinant_matches_colouring_route():
-    # |Δ(−1)| = det = product of the invariant factors (REFERENCES "Relations")
+    # |Δ(−1)| = det = product of the invariant factors (SOURCES.md "Relations")
     coloring = pytest.importorskip("pipeline.invariants.coloring")
     for text in ["pretzel:3,3,-3", "pretzel:2,4,6", "torus:3,6", "torus:4,6", "rational:24/7",
                  "pretzel:5,-3,7,2", "braid:1,1,-2,1,3,-2,3", "montesinos:2/5,1/3,-3/7"]:
@@ -372,7 +372,7 @@ def test_lowest_conway_coefficient_is_the_linking_determinant(text):
 @example((3, [1, 1, 2, 2]))
 def test_signed_alexander_at_minus_one_matches_signature(sw):
     # Δ(−1) = i^(−σ)·det with t^½ = i, from Δ = det(t^½V − t^−½Vᵀ) and σ = sign(V + Vᵀ)
-    # (REFERENCES "Relations", common practice): checks the sign of a link's Δ against the
+    # (SOURCES.md "Relations", common practice): checks the sign of a link's Δ against the
     # signature computed from a Goeritz matrix (Gordon–Litherland), an unrelated route
     signature = pytest.importorskip("pipeline.invariants.signature")
     coloring = pytest.importorskip("pipeline.invariants.coloring")

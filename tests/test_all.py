@@ -21,7 +21,7 @@ def test_tangle_route_equals_general_route_and_state_sum(text):
 
 def test_trefoil_row_values():
     row = compute_all(parse("torus:2,3"))
-    # DESIGN contract / common practice: det 3, 9 three-colourings, σ = −2, V = t + t³ − t⁴
+    # README conventions / common practice: det 3, 9 three-colourings, σ = −2, V = t + t³ − t⁴
     assert row["determinant"] == 3 and row["invariant_factors"] == [3]
     assert row["colorings"][3] == 9 and row["colorable_moduli"][:1] == [3]
     assert row["signature"] == -2

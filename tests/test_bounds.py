@@ -1,4 +1,4 @@
-"""Tests of pipeline.invariants.bounds against published values (REFERENCES.md)."""
+"""Tests of pipeline.invariants.bounds against published values (SOURCES.md)."""
 
 from __future__ import annotations
 
@@ -102,7 +102,7 @@ def test_fox_milnor_determinant_square(det, obstructed):
 
 @pytest.mark.parametrize("notation,u,b", [
     ("pretzel:3,0,3", 2, 3),   # 3_1 # 3_1: factors (3,3); u = 2, b = 3 (common practice)
-    ("pretzel:3,3,-3", 2, 3),  # factors (3,3) (REFERENCES.md, memory)
+    ("pretzel:3,3,-3", 2, 3),  # factors (3,3) (SOURCES.md, memory)
     ("torus:2,3", 1, 2),
     ("torus:3,5", 0, 1),       # det 1: Wendt's bound says nothing
 ])

@@ -1,6 +1,6 @@
 """Tests of pipeline.invariants.checks: the relations hold on published values and on
 computed rows, each check can fail on a corrupted value, and checks that do not apply
-are omitted.  Sources are named beside each value (REFERENCES.md)."""
+are omitted.  Sources are named beside each value (SOURCES.md)."""
 
 from __future__ import annotations
 
@@ -25,7 +25,7 @@ def L(*pairs) -> Laurent:
 
 
 # ---------------------------------------------------------------- published rows
-TREFOIL = {  # positive trefoil: DESIGN.md contract (V, σ); Δ, ∇, det: common practice
+TREFOIL = {  # positive trefoil: README.md contract (V, σ); Δ, ∇, det: common practice
     "components": 1, "determinant": 3, "invariant_factors": [3], "nullity": 0,
     "jones": L((1, 1), (3, 1), (4, -1)), "alexander": L((-1, 1), (0, -1), (1, 1)),
     "conway": Laurent({0: 1, 4: 1}), "signature": -2,
@@ -35,7 +35,7 @@ FIGURE_EIGHT = {  # 4_1: V = t^-2 - t^-1 + 1 - t + t^2, Δ = -t + 3 - 1/t, det 5
     "jones": L((-2, 1), (-1, -1), (0, 1), (1, -1), (2, 1)), "alexander": L((-1, -1), (0, 3), (1, -1)),
     "conway": Laurent({0: 1, 4: -1}), "signature": 0,
 }
-HOPF = {  # positive Hopf link: V = -t^{1/2} - t^{5/2}, ∇ = z, σ = -1, factors (2) (DESIGN.md)
+HOPF = {  # positive Hopf link: V = -t^{1/2} - t^{5/2}, ∇ = z, σ = -1, factors (2) (README.md)
     "components": 2, "determinant": 2, "invariant_factors": [2], "nullity": 0,
     "jones": L((Fraction(1, 2), -1), (Fraction(5, 2), -1)), "alexander": L((Fraction(-1, 2), -1), (Fraction(1, 2), 1)),
     "conway": Laurent({2: 1}), "signature": -1,
@@ -116,7 +116,7 @@ def _random_braids(knots: int, links: int, seed: int):
 
 
 def test_every_check_passes_on_random_braid_closures():
-    # 200 knots and 100 links (split or not, with kinks): the relations of REFERENCES.md hold
+    # 200 knots and 100 links (split or not, with kinks): the relations of SOURCES.md hold
     seen = set()
     for word, d in _random_braids(200, 100, seed=2026):
         result = run_checks(d, computed(d))

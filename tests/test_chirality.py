@@ -29,7 +29,7 @@ def test_chiral_knots_are_proven_chiral(notation):
 
 
 def test_signature_proves_chirality_when_jones_is_skipped():
-    # positive trefoil σ = −2 ≠ 0 (DESIGN.md contract)
+    # positive trefoil σ = −2 ≠ 0 (README.md contract)
     assert verdict("torus:2,3", with_jones=False) == ("chiral (signature)", "signature -2 != 0")
 
 
@@ -41,7 +41,7 @@ def test_figure_eight_is_not_proven_chiral():
 
 @pytest.mark.parametrize("alpha", [5, 10, 13, 17, 25, 26, 29, 34, 37, 41, 50])
 def test_amphichiral_two_bridge_links_are_never_called_chiral(alpha):
-    # Schubert 1956 (REFERENCES.md families 1): b(α,β) is amphichiral iff β² ≡ −1 (mod α);
+    # Schubert 1956 (SOURCES.md families 1): b(α,β) is amphichiral iff β² ≡ −1 (mod α);
     # even α are two-component links (compared over both orientations)
     for beta in range(1, alpha):
         if gcd(alpha, beta) == 1 and (beta * beta + 1) % alpha == 0:

@@ -145,7 +145,7 @@ def test_torus_knot_determinant_rule(census):
 
 
 def test_prime_colourability_iff_prime_divides_determinant(census):
-    # nontrivially p-colourable iff p | det (p prime) -- Fox 1962; DESIGN.md "Colourings"
+    # nontrivially p-colourable iff p | det (p prime) -- Fox 1962; README.md "Colourings"
     for p in (3, 5, 7, 11):
         r = check_claim(census, f"colorable({p}) == (determinant % {p} == 0)")
         assert r.held == r.selected > 100, p

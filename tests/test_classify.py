@@ -46,17 +46,17 @@ def jones_set(d: Diagram):
 
 # ---------------------------------------------------------------------- torus
 def test_torus_swap_mirror_and_trivial_cases():
-    # Rolfsen ch. 7, Burde-Zieschang ch. 3 (REFERENCES item 4): T(p,q) = T(q,p), T(-p,q) mirror
+    # Rolfsen ch. 7, Burde-Zieschang ch. 3 (SOURCES.md item 4): T(p,q) = T(q,p), T(-p,q) mirror
     for p, q in [(2, 3), (3, 4), (3, 5), (2, 7), (4, 6), (3, 3), (5, 7)]:
         assert key(f"torus:{p},{q}") == key(f"torus:{q},{p}") == key(f"torus:{-p},{-q}")
         nf = torus_nf(p, q)
         assert nf.mirror_key == key(f"torus:{-p},{q}") != nf.key
-    for q in [2, 3, 7, -5]:       # REFERENCES item 5: T(±1, q) is the unknot
+    for q in [2, 3, 7, -5]:       # SOURCES.md item 5: T(±1, q) is the unknot
         assert key(f"torus:1,{q}") == key(f"torus:-1,{q}") == key(f"torus:{q},1") == "unknot"
 
 
 def test_torus_two_n_is_rational_n_over_one():
-    # REFERENCES item 5: T(2,n) = b(n, ±1); DESIGN pin torus:2,3 = rational:3/1 = conway:3
+    # SOURCES.md item 5: T(2,n) = b(n, ±1); DESIGN pin torus:2,3 = rational:3/1 = conway:3
     assert key("torus:2,3") == key("rational:3/1") == key("conway:3") == "torus:2,3"
     for n in range(2, 30):
         assert key(f"torus:2,{n}") == key(f"rational:{n}/1") == key(f"rational:{n}/{1 - n}")
@@ -71,7 +71,7 @@ def test_torus_braid_words_are_recognised():
 
 # ---------------------------------------------------------------------- two-bridge
 def test_schubert_classification_for_alpha_up_to_60():
-    # Schubert 1956 (REFERENCES item 1): b(α,β) = b(α,β') iff β' ≡ β^{±1} (mod α); mirror b(α,−β);
+    # Schubert 1956 (SOURCES.md item 1): b(α,β) = b(α,β') iff β' ≡ β^{±1} (mod α); mirror b(α,−β);
     # amphichiral iff β² ≡ −1 (mod α)
     for alpha in range(2, 61):
         betas = [b for b in range(1, alpha) if gcd(alpha, b) == 1]
@@ -122,7 +122,7 @@ def test_figure_eight_amphichiral_and_trefoil_chiral():
 
 # ---------------------------------------------------------------------- Montesinos / pretzel
 def test_published_coincidences():
-    # REFERENCES item 5: P(−2,3,3) = T(3,4), P(−2,3,5) = T(3,5); mirrors likewise
+    # SOURCES.md item 5: P(−2,3,3) = T(3,4), P(−2,3,5) = T(3,5); mirrors likewise
     assert key("pretzel:-2,3,3") == key("torus:3,4") == key("pretzel:3,-2,3")
     assert key("pretzel:-2,3,5") == key("torus:3,5") == key("pretzel:5,3,-2")
     assert key("pretzel:2,-3,-3") == key("torus:-3,4")
@@ -154,7 +154,7 @@ def _random_fracs(rng, k, nonint_max):
 
 
 def test_reduction_to_two_bridge_agrees_with_jones():
-    # ≤ 2 non-integral tangles: two-bridge (REFERENCES item 5); the computed b(α,β) is
+    # ≤ 2 non-integral tangles: two-bridge (SOURCES.md item 5); the computed b(α,β) is
     # checked against the Jones polynomials (all orientations) of the Montesinos diagram
     rng = random.Random(5)
     checked = 0
@@ -182,7 +182,7 @@ def _dihedral(seq):
 @pytest.mark.parametrize("entries", [(2, 3, 3, 5), (3, 5, 7, 9), (-2, 3, 5, 7), (3, -4, 5, 5, 7),
                                      (2, 2, 3, -3), (4, 3, 5, -6, 7)])
 def test_pretzel_permutations_collapse_exactly_under_dihedral_symmetry(entries):
-    # Bonahon-Siebenmann (REFERENCES item 5): cyclic order up to rotation and reversal
+    # Bonahon-Siebenmann (SOURCES.md item 5): cyclic order up to rotation and reversal
     classes: dict[frozenset, set] = {}
     for perm in set(itertools.permutations(entries)):
         classes.setdefault(frozenset(_dihedral(perm)), set()).add(key("pretzel:" + ",".join(map(str, perm))))
@@ -198,7 +198,7 @@ def test_pretzel_with_unit_entries_collapses_more():
 
 
 def test_mutants_share_fingerprints_but_not_keys():
-    # REFERENCES item 5: P(2,3,3,5) and P(2,3,5,3) share every invariant yet differ
+    # SOURCES.md item 5: P(2,3,3,5) and P(2,3,5,3) share every invariant yet differ
     a, b = parse("pretzel:2,3,3,5"), parse("pretzel:2,3,5,3")
     assert jones_polynomial(a) == jones_polynomial(b)
     assert invariant_factors(a) == invariant_factors(b)
@@ -218,7 +218,7 @@ def test_mutants_share_fingerprints_but_not_keys():
 
 
 def test_zero_entries_give_connected_sums_and_split_links():
-    # REFERENCES item 5: P(3,0,3) = T(2,3) # T(2,3), invariant factors (3,3), not two-bridge
+    # SOURCES.md item 5: P(3,0,3) = T(2,3) # T(2,3), invariant factors (3,3), not two-bridge
     assert key("pretzel:3,0,3") == key("pretzel:0,3,3") == "sum:torus:2,3#torus:2,3"
     assert invariant_factors(parse("pretzel:3,0,3")) == (3, 3)
     assert key("pretzel:3,0,-3") != key("pretzel:3,0,3")
@@ -282,7 +282,7 @@ def test_knots_table_columns_and_crossing_numbers():
     assert t34["n_diagrams"] == 3 and t34["proof"] == "normal form" and t34["amphichiral"] is False
     # fewest crossings (8 for the closed braid and for the pretzel), ties by row_id
     assert t34["representative"] == "torus:3,4" and t34["min_crossings_seen"] == 8
-    # Murasugi 1991: c(T(3,4)) = 8 (8_19), c(T(3,5)) = 10 (10_124) (REFERENCES table, memory)
+    # Murasugi 1991: c(T(3,4)) = 8 (8_19), c(T(3,5)) = 10 (10_124) (SOURCES.md table, memory)
     assert t34["crossing_number"] == 8 and table["torus:3,5"]["crossing_number"] == 10
     # 5_2 = conway 3 2 = 7/2, 7_4 = conway 3 1 3 = 15/4 (Rolfsen table, memory)
     assert table[key("rational:7/2")]["crossing_number"] == 5

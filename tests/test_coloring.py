@@ -1,4 +1,4 @@
-"""Tests of pipeline.invariants.coloring against outside sources (REFERENCES.md).
+"""Tests of pipeline.invariants.coloring against outside sources (SOURCES.md).
 
 Three routes: published values and closed formulas (source beside each check);
 sympy's determinant and Smith form on the same matrix; brute-force enumeration of
@@ -178,19 +178,19 @@ def test_torus_knots_from_the_table():
     # Rolfsen table *(memory)*: 8_19 = T(3,4) det 3; 10_124 = T(3,5) det 1.
     assert determinant(parse("torus:3,4")) == 3
     assert determinant(parse("torus:3,5")) == 1
-    # REFERENCES.md coincidences: P(−2,3,3) = T(3,4), P(−2,3,5) = T(3,5) *(memory)*.
+    # SOURCES.md coincidences: P(−2,3,3) = T(3,4), P(−2,3,5) = T(3,5) *(memory)*.
     assert determinant(parse("pretzel:-2,3,3")) == 3
     assert determinant(parse("pretzel:-2,3,5")) == 1
 
 
 def test_pretzel_3_3_minus3_has_factors_3_3_and_27_three_colourings():
-    # REFERENCES.md, pretzel item *(memory)*: factors (3, 3), 27 Fox 3-colourings.
+    # SOURCES.md, pretzel item *(memory)*: factors (3, 3), 27 Fox 3-colourings.
     d = parse("pretzel:3,3,-3")
     assert invariant_factors(d) == (3, 3)
     assert determinant(d) == 9
     assert coloring_counts(d)[3] == 27
     assert len(_brute_colorings(d, 3)) == 27
-    # DESIGN.md: 9 | det but no colouring whose colours generate Z/9.
+    # README.md: 9 | det but no colouring whose colours generate Z/9.
     assert nontrivially_colorable((3, 3), 9)
     assert not has_generating_coloring((3, 3), 9)
     assert has_generating_coloring((3, 3), 3)
@@ -206,14 +206,14 @@ def test_trefoil_and_figure_eight_colourings():
 
 
 def test_hopf_link_unlink_and_connected_sum():
-    # DESIGN.md: Hopf link M = [[2,−2],[−2,2]], factors (2), det 2.
+    # README.md: Hopf link M = [[2,−2],[−2,2]], factors (2), det 2.
     hopf = parse("braid:1,1")
     assert coloring_matrix(hopf) == [[2, -2], [-2, 2]]
     assert invariant_factors(hopf) == (2,) and determinant(hopf) == 2
     # two-component unlink: factors (0), det 0 (common practice: split link).
     unlink = parse("braid:1,-1")
     assert invariant_factors(unlink) == (0,) and determinant(unlink) == 0
-    # REFERENCES.md item 5 *(memory)*: P(3,0,3) = T(2,3) # T(2,3), factors (3,3).
+    # SOURCES.md item 5 *(memory)*: P(3,0,3) = T(2,3) # T(2,3), factors (3,3).
     assert invariant_factors(parse("pretzel:3,0,3")) == (3, 3)
 
 

@@ -10,7 +10,7 @@ from pipeline import Diagram, parse
 from pipeline.errors import DiagramError
 from slow_routes import state_sum_jones
 
-TREFOIL_PD = [[1, 5, 2, 4], [3, 1, 4, 6], [5, 3, 6, 2]]  # DESIGN.md: positive trefoil, writhe +3
+TREFOIL_PD = [[1, 5, 2, 4], [3, 1, 4, 6], [5, 3, 6, 2]]  # README.md: positive trefoil, writhe +3
 
 
 def test_design_trefoil_example():
@@ -23,7 +23,7 @@ def test_design_trefoil_example():
 
 
 def test_sign_rule_over_strand_direction():
-    # DESIGN.md: positive when the over-strand runs from d to b
+    # README.md: positive when the over-strand runs from d to b
     d = Diagram.from_pd(TREFOIL_PD)
     for i in range(3):
         a, b, c, dd = d.pd[i]
@@ -36,7 +36,7 @@ def test_sign_rule_over_strand_direction():
 
 
 def test_mirror_is_involution_and_flips_jones():
-    # Mirror image: V(t) -> V(1/t) (common practice; REFERENCES.md)
+    # Mirror image: V(t) -> V(1/t) (common practice; SOURCES.md)
     for text in ["torus:2,5", "pretzel:3,-2,5", "rational:7/3", "braid:1,-2,1,1,-2"]:
         d = parse(text)
         assert d.mirror().mirror() == d
@@ -60,7 +60,7 @@ def test_components_that_never_pass_under():
 
 
 def test_split_pieces_and_free_loops():
-    d = parse("pretzel:2,0,0,3")     # two zero entries: a split link (REFERENCES.md item 5)
+    d = parse("pretzel:2,0,0,3")     # two zero entries: a split link (SOURCES.md item 5)
     assert d.free_loops == 1 and len(d.pieces) == 1
     assert len(parse("braid:1,1,3,3").pieces) == 2
     e = parse("braid:3")

@@ -3,7 +3,7 @@
 The geometry is checked from the outside: segment intersections by plain vectorised
 orientation tests (not the module's own checker), crossing signs recomputed from the
 drawn directions with the right-hand rule and compared with the PD signs and with the
-published handedness pin (torus:2,3 is the positive trefoil, writhe +3, DESIGN.md), and
+published handedness pin (torus:2,3 is the positive trefoil, writhe +3, README.md), and
 the labels compared with the rows of the colouring matrix rebuilt from the picture.
 """
 
@@ -206,7 +206,7 @@ def test_edges_run_along_the_orientation(diagram):
 
 
 def test_positive_trefoil_is_drawn_right_handed():
-    # DESIGN.md pin: torus:2,3 is the positive trefoil, writhe +3; the drawn crossings
+    # README.md pin: torus:2,3 is the positive trefoil, writhe +3; the drawn crossings
     # must all be positive by the right-hand rule, and those of its mirror negative.
     d = parse("torus:2,3")
     for diag, expected in ((d, 1), (d.mirror(), -1)):

@@ -24,7 +24,7 @@ def test_torus_sizes_and_components(p, q):
 
 @pytest.mark.parametrize("entries", [(3, 5, 7), (2, 3, 5), (2, 4, 5), (3, 3, 3, 3), (-3, 5, 2, 7), (2, 2, 3), (1, 1)])
 def test_pretzel_knot_parity_rule(entries):
-    # REFERENCES.md item 3: P(p1..pk) is a knot iff exactly one p_i is even, or k and all p_i
+    # SOURCES.md item 3: P(p1..pk) is a knot iff exactly one p_i is even, or k and all p_i
     # are odd *(common practice)*
     evens = sum(1 for p in entries if p % 2 == 0)
     is_knot = evens == 1 or (evens == 0 and len(entries) % 2 == 1)
@@ -61,5 +61,5 @@ def test_braid_strands_default_and_extra():
 
 
 def test_montesinos_integer_tangle():
-    # an integer entry n is the tangle n/1 (DESIGN.md)
+    # an integer entry n is the tangle n/1 (README.md)
     assert parse("montesinos:1/3,2") == parse("montesinos:1/3,2/1")

@@ -115,6 +115,6 @@ def test_fit_by_sign_finds_pretzel_crossings_as_sum_of_absolute_values(census):
 
 
 def test_fit_torus_crossings_is_the_braid_length(census):
-    # T(p,q) as the closure of (s1...s_{p-1})^q has (p-1)q crossings (DESIGN.md torus notation)
+    # T(p,q) as the closure of (s1...s_{p-1})^q has (p-1)q crossings (README.md torus notation)
     _, (c,), _ = fit_family(census, "torus", "crossings")
     assert c.exact and sympy.expand(c.fit.expr() - _sym("(p - 1)*q")) == 0

@@ -42,7 +42,7 @@ def test_duplicates_and_dt_rows_are_marked(tmp_path, capsys):
     d = census.diagrams.set_index("row_id")
     # P(3,5,7) and P(5,7,3) are the same diagram on the sphere (a rotation of the columns)
     assert str(d.loc[0, "duplicate_of"]) == "<NA>" and d.loc[1, "duplicate_of"] == 0
-    # the DESIGN example trefoil and torus:2,3 as built by the braid builder: same diagram, relabelled
+    # the README example trefoil and torus:2,3 as built by the braid builder: same diagram, relabelled
     assert d.loc[3, "duplicate_of"] == 2
     # dt:4 6 2 realises the same 3-crossing diagram (with the convention's mirror choice)
     assert d.loc[4, "duplicate_of"] == 2

@@ -1,7 +1,7 @@
 """Tests of the Kauffman bracket and Jones polynomial (pipeline/invariants/jones.py).
 
 Checked three ways: published values and closed formulas (sources beside each
-check, as listed in REFERENCES.md), relations with other invariants, and a
+check, as listed in SOURCES.md), relations with other invariants, and a
 randomised comparison against a slow all-states Kauffman sum written below.
 """
 
@@ -106,7 +106,7 @@ def at_minus_one(p: Laurent) -> int:
 
 # ----------------------------------------------------------------- published values
 def test_positive_trefoil_and_mirror():
-    # DESIGN.md normalisation; Jones, Bull. AMS 12 (1985): V(3_1, right-handed) = t + t^3 - t^4
+    # README.md normalisation; Jones, Bull. AMS 12 (1985): V(3_1, right-handed) = t + t^3 - t^4
     assert V("torus:2,3") == Laurent.from_exponents([(1, 1), (3, 1), (4, -1)])
     assert V("torus:-2,3") == Laurent.from_exponents([(-1, 1), (-3, 1), (-4, -1)])
     assert parse("torus:2,3").writhe == 3
@@ -119,7 +119,7 @@ def test_bracket_of_trefoil_by_hand():
 
 
 def test_figure_eight_looks_amphichiral():
-    # 4_1 = conway:2 2 (REFERENCES, Rolfsen table *(memory)*); amphichiral, so V(t) = V(1/t);
+    # 4_1 = conway:2 2 (SOURCES.md, Rolfsen table *(memory)*); amphichiral, so V(t) = V(1/t);
     # det 5 gives |V(-1)| = 5 (Jones 1985)
     v = V("conway:2 2")
     assert v.is_symmetric()
@@ -129,7 +129,7 @@ def test_figure_eight_looks_amphichiral():
 
 
 def _skein_hopf() -> Laurent:
-    """V(positive Hopf link) solved from the skein relation of DESIGN.md.
+    """V(positive Hopf link) solved from the skein relation of README.md.
 
     t⁻¹V(L₊) − tV(L₋) = (t^½ − t^−½)V(L₀) with L₊ = closure of σ1², L₋ = closure of
     σ1σ1⁻¹ (2-component unlink, V = −t^½ − t^−½, itself from the relation with
@@ -163,7 +163,7 @@ def test_unknots_and_unlinks():
 def test_split_and_connected_sums():
     # *(common practice)*: V(L1 ⊔ L2) = (−t^½ − t^−½) V(L1) V(L2); V(K1 # K2) = V(K1) V(K2)
     assert V("braid:1,1,1,3,3") == V("torus:2,3") * V("braid:1,1") * UNLINK2
-    # P(3,0,3) = T(2,3) # T(2,3) (REFERENCES, coincidences *(memory)*)
+    # P(3,0,3) = T(2,3) # T(2,3) (SOURCES.md, coincidences *(memory)*)
     assert V("pretzel:3,0,3") == V("torus:2,3") * V("torus:2,3")
 
 
@@ -198,7 +198,7 @@ def test_torus_knot_jones_formula_wide(p, q):
 
 @pytest.mark.parametrize("p,q", [(2, 3), (2, 5), (3, 4), (3, 5), (4, 5)], ids=str)
 def test_torus_symmetry(p, q):
-    # T(p,q) = T(q,p) (REFERENCES, Rolfsen ch. 7)
+    # T(p,q) = T(q,p) (SOURCES.md, Rolfsen ch. 7)
     assert V(f"torus:{p},{q}") == V(f"torus:{q},{p}")
 
 
@@ -210,7 +210,7 @@ def test_torus_symmetry(p, q):
     ("pretzel:3,4", "torus:2,7"), ("pretzel:2,5", "torus:2,7"), ("pretzel:-1,4", "torus:2,3"),
 ], ids=lambda s: s)
 def test_notation_pins_share_jones(a, b):
-    # DESIGN.md notation pins; REFERENCES coincidences: P(−2,3,3) = T(3,4), P(−2,3,5) = T(3,5),
+    # README.md notation pins; SOURCES.md coincidences: P(−2,3,3) = T(3,4), P(−2,3,5) = T(3,5),
     # P(p,q) = T(2,p+q) (knots here, so orientation plays no role)
     assert V(a) == V(b)
 
@@ -296,7 +296,7 @@ def test_random_braid_closures_match_all_states_sum(wb):
 @settings(max_examples=60, deadline=None)
 @given(braid_words(), st.data())
 def test_skein_relation_on_random_braids(wb, data):
-    # DESIGN.md: t⁻¹V(L₊) − tV(L₋) = (t^½ − t^−½)V(L₀), at any crossing of a braid closure
+    # README.md: t⁻¹V(L₊) − tV(L₋) = (t^½ − t^−½)V(L₀), at any crossing of a braid closure
     word, strands = wb
     k = data.draw(st.integers(0, len(word) - 1))
     g = abs(word[k])

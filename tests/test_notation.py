@@ -1,4 +1,4 @@
-"""Notations (DESIGN.md contract): parsing, handedness pins, round trips, bad input."""
+"""Notations (README.md contract): parsing, handedness pins, round trips, bad input."""
 
 from __future__ import annotations
 
@@ -12,10 +12,10 @@ from pipeline.errors import NotationError
 from pipeline.poly import Laurent
 from slow_routes import state_sum_jones
 
-POSITIVE_TREFOIL = Laurent.from_exponents([(1, 1), (3, 1), (4, -1)])  # DESIGN.md: V = t + t³ − t⁴
+POSITIVE_TREFOIL = Laurent.from_exponents([(1, 1), (3, 1), (4, -1)])  # README.md: V = t + t³ − t⁴
 
 
-# Handedness pins of DESIGN.md, each checked with the Jones polynomial (chirality-sensitive),
+# Handedness pins of README.md, each checked with the Jones polynomial (chirality-sensitive),
 # computed by the all-states Kauffman sum (Kauffman, Topology 26 (1987)).
 @pytest.mark.parametrize("text", ["torus:2,3", "conway:3", "rational:3/1", "braid:1,1,1",
                                   "pd:[[1,5,2,4],[3,1,4,6],[5,3,6,2]]", "pretzel:1,2", "dt:4 6 2"])
@@ -30,40 +30,40 @@ def test_negative_trefoil(text):
 
 
 def test_pretzel_minus2_3_3_is_torus_3_4():
-    # DESIGN.md pin; REFERENCES.md item 5: P(−2,3,3) = T(3,4) *(memory: Burde–Zieschang ch. 12)*
+    # README.md pin; SOURCES.md item 5: P(−2,3,3) = T(3,4) *(memory: Burde–Zieschang ch. 12)*
     assert state_sum_jones(parse("pretzel:-2,3,3")) == state_sum_jones(parse("torus:3,4"))
 
 
 @pytest.mark.parametrize("p,q", [(1, 2), (2, 3), (3, 2), (1, 4), (-1, 4), (2, -5), (3, 3)])
 def test_two_column_pretzel_is_torus_2_n(p, q):
-    # REFERENCES.md item 5: P(p,q) is T(2,p+q)
+    # SOURCES.md item 5: P(p,q) is T(2,p+q)
     assert state_sum_jones(parse(f"pretzel:{p},{q}")) == state_sum_jones(parse(f"torus:2,{p + q}"))
 
 
 @pytest.mark.parametrize("entries", ["3,5,7", "-2,3,3", "2,-3,1", "1,1,1,1"])
 def test_pretzel_is_montesinos_of_reciprocals(entries):
-    # DESIGN.md notation table: pretzel:p1,...,pk is montesinos:1/p1,...,1/pk
+    # README.md notation table: pretzel:p1,...,pk is montesinos:1/p1,...,1/pk
     ps = entries.split(",")
     assert parse("pretzel:" + entries) == parse("montesinos:" + ",".join(f"1/{p}" for p in ps))
 
 
 @pytest.mark.parametrize("a", [3, 5, 7, 9])
 def test_rational_a_over_1_is_torus_2_a(a):
-    # DESIGN.md: rational:a/1 is torus:2,a (knots; for even a the two are the same unoriented
+    # README.md: rational:a/1 is torus:2,a (knots; for even a the two are the same unoriented
     # link but the diagrams may orient the components differently, which changes Jones)
     assert state_sum_jones(parse(f"rational:{a}/1")) == state_sum_jones(parse(f"torus:2,{a}"))
 
 
 @pytest.mark.parametrize("alpha,beta", [(5, 2), (7, 2), (7, 3), (9, 2), (11, 3)])
 def test_rational_negative_beta_is_mirror(alpha, beta):
-    # REFERENCES.md item 1: the mirror of b(α,β) is b(α,−β) (Schubert 1956)
+    # SOURCES.md item 1: the mirror of b(α,β) is b(α,−β) (Schubert 1956)
     v = state_sum_jones(parse(f"rational:{alpha}/{beta}"))
     assert state_sum_jones(parse(f"rational:{alpha}/{-beta}")) == v.invert()
 
 
 @pytest.mark.parametrize("terms,frac", [("3 2", "7/2"), ("2 2", "5/2"), ("3 1 2", "11/4"), ("2 1 1 2", "13/5")])
 def test_conway_equals_rational_of_its_fraction(terms, frac):
-    # REFERENCES.md item 2: [a1..an] is b(α,β) with α/β = a1 + 1/(a2 + ...) (Conway 1970)
+    # SOURCES.md item 2: [a1..an] is b(α,β) with α/β = a1 + 1/(a2 + ...) (Conway 1970)
     assert state_sum_jones(parse("conway:" + terms)) == state_sum_jones(parse("rational:" + frac))
 
 

@@ -101,7 +101,7 @@ def test_knot_collapse_counts_match_schubert_classification(report_dir):
 
 
 def test_report_lists_keys_shared_across_families(report_dir):
-    # T(2,n) = b(n, +-1) -- Rolfsen, Knots and Links; REFERENCES.md "Coincidences across families"
+    # T(2,n) = b(n, +-1) -- Rolfsen, Knots and Links; SOURCES.md "Coincidences across families"
     md = (report_dir / "report.md").read_text()
     m = re.search(r"(\d+) knot keys occur in more than one family", md)
     assert m and int(m.group(1)) > 0

@@ -57,7 +57,7 @@ path = "notebook.csv"
 knots_only = true
 """
 
-# Rolfsen's table by Conway notation, with determinants (REFERENCES.md, *(memory)*),
+# Rolfsen's table by Conway notation, with determinants (SOURCES.md, *(memory)*),
 # plus rows malformed on purpose.
 NOTEBOOK = """\
 diagram,name,det
@@ -142,12 +142,12 @@ def test_determinants_obey_published_formulas_in_every_family(reference):
             a, b = p["p"], p["q"]
             if gcd(a, b) == 1:  # T(p,q) knot: 1 if p, q odd, else the odd one (Rolfsen ch. 7)
                 assert det == (1 if a % 2 and b % 2 else (a if a % 2 else b))
-            elif a == 2:        # T(2,q) = b(q,1) (REFERENCES.md §5): det q
+            elif a == 2:        # T(2,q) = b(q,1) (SOURCES.md §5): det q
                 assert det == b
             else:               # T(3,3), a 3-component link: |Δ(−1)| = det, checked via V(−1)
                 continue
         elif r["family"] == "montesinos":
-            # |Σ β_i Π_{j≠i} α_j|, the pretzel formula of REFERENCES.md §3 for tangles β_i/α_i
+            # |Σ β_i Π_{j≠i} α_j|, the pretzel formula of SOURCES.md §3 for tangles β_i/α_i
             # *(common practice; derivable from the Goeritz matrix)*
             assert det == _montesinos_det(p)
         elif r["family"] == "file":
@@ -299,7 +299,7 @@ def test_knots_table_counts_every_keyed_row(reference):
     keyed = [r for r in c["diagrams"] if r["knot_key"] is not None]
     assert keyed and sum(k["n_diagrams"] for k in c["knots"]) == len(keyed)
     assert {k["knot_key"] for k in c["knots"]} == {r["knot_key"] for r in keyed}
-    # T(2,3) = b(3,1) = conway:3 (REFERENCES.md §5): one type, several diagrams
+    # T(2,3) = b(3,1) = conway:3 (SOURCES.md §5): one type, several diagrams
     trefoil = {r["knot_key"] for r in keyed if r["notation"] in ("torus:2,3", "rational:3/1", "conway:3")}
     assert len(trefoil) == 1
 

@@ -56,7 +56,7 @@ def test_json_for_the_trefoil(capsys):
     assert obj["colorings"] == {str(n): n * (3 if n % 3 == 0 else 1) for n in range(2, 17)}
     assert all(type(v) is int for v in obj["colorings"].values())
     assert obj["witnesses"] == {"3": [0, 1, 2]}
-    if obj.get("jones") is not None:  # DESIGN.md: positive trefoil V = t + t^3 - t^4
+    if obj.get("jones") is not None:  # README.md: positive trefoil V = t + t^3 - t^4
         assert obj["jones"] == [[1, 1], [3, 1], [4, -1]]
 
 
@@ -64,7 +64,7 @@ def test_json_max_modulus_and_extra_witness(capsys):
     code, out, _ = _run(capsys, "pretzel:3,3,-3", "--json", "--max-modulus", "9", "--witness", "5")
     obj = json.loads(out)
     assert sorted(obj["colorings"], key=int) == [str(n) for n in range(2, 10)]
-    assert obj["colorings"]["3"] == 27  # REFERENCES.md (memory)
+    assert obj["colorings"]["3"] == 27  # SOURCES.md (memory)
     assert obj["witnesses"]["5"] is None  # det 9: no nontrivial 5-colouring
     assert 9 not in obj["generating_moduli"] and 3 in obj["generating_moduli"]
 

@@ -1,6 +1,6 @@
 """Tests of pipeline.invariants.signature against outside values and slow routes.
 
-Sources are named beside each check (REFERENCES.md).  The slow routes written here:
+Sources are named beside each check (SOURCES.md).  The slow routes written here:
 * Brieskorn's count of the signature of a torus knot;
 * a Seifert matrix of a braid closure (Seifert's algorithm on the closed braid:
   one disc per strand, one band per letter), symmetrised, with its signature found by
@@ -109,24 +109,24 @@ TORUS_PAIRS = [(p, q) for q in range(3, 12) for p in range(2, q) if gcd(p, q) ==
 
 @pytest.mark.parametrize("p,q", TORUS_PAIRS, ids=[f"T({p},{q})" for p, q in TORUS_PAIRS])
 def test_signature_of_torus_knot_is_brieskorn_count(p, q):
-    # Brieskorn 1966 / Gordon–Litherland–Murasugi 1981 (REFERENCES.md, families 4)
+    # Brieskorn 1966 / Gordon–Litherland–Murasugi 1981 (SOURCES.md, families 4)
     assert signature(parse(f"torus:{p},{q}")) == brieskorn_signature(p, q)
     assert signature(parse(f"torus:{q},{p}")) == brieskorn_signature(p, q)  # T(p,q) = T(q,p)
 
 
 @pytest.mark.parametrize("p,q,value", [(2, 3, -2), (3, 4, -6), (3, 5, -8), (3, 7, -8)])
 def test_brieskorn_count_matches_the_published_values(p, q, value):
-    # REFERENCES.md families 4: T(2,3) −2, T(3,4) −6, T(3,5) −8, T(3,7) −8
+    # SOURCES.md families 4: T(2,3) −2, T(3,4) −6, T(3,5) −8, T(3,7) −8
     assert brieskorn_signature(p, q) == value
     assert signature(parse(f"torus:{p},{q}")) == value
 
 
 NAMED = {
-    "torus:2,3": -2,        # positive trefoil (DESIGN.md contract)
+    "torus:2,3": -2,        # positive trefoil (README.md contract)
     "torus:-2,3": 2,        # its mirror
     "conway:3": -2,         # = torus:2,3 (skeleton pin)
     "conway:2 2": 0,        # figure-eight: amphichiral, σ = 0 (common practice)
-    "pretzel:-2,3,3": -6,   # = T(3,4) (REFERENCES.md families 5)
+    "pretzel:-2,3,3": -6,   # = T(3,4) (SOURCES.md families 5)
     "pretzel:-2,3,5": -8,   # = T(3,5)
     "torus:2,2": -1,        # positive Hopf link (common practice)
     "torus:2,4": -3,        # T(2,4) with parallel strands (common practice)
@@ -154,7 +154,7 @@ def test_nullity_counts_split_pieces(notation, value):
     assert nullity(parse(notation)) == value
 
 
-# Rolfsen's table by Conway notation (REFERENCES.md, *(memory)*)
+# Rolfsen's table by Conway notation (SOURCES.md, *(memory)*)
 CONWAY_DETS = {"3": 3, "2 2": 5, "5": 5, "3 2": 7, "4 2": 9, "3 1 2": 11, "2 1 1 2": 13,
                "7": 7, "5 2": 11, "4 3": 13, "3 1 3": 15, "3 2 2": 17, "2 2 1 2": 19,
                "2 1 1 1 2": 21}

@@ -31,7 +31,7 @@ def test_torus_family_enumerates_p_then_q_and_skips_zero():
 
 
 def test_two_bridge_family_has_every_coprime_beta():
-    # every β with 0 < β < α, gcd(α, β) = 1 (DESIGN.md "Spec file"): Euler's φ(α) rows per α
+    # every β with 0 < β < α, gcd(α, β) = 1 (README.md "Spec file"): Euler's φ(α) rows per α
     spec = parse_spec('[[family]]\nkind = "two_bridge"\nalpha = [3, 30]\n')
     items = list(iter_items(spec))
     phi = lambda a: sum(1 for b in range(1, a) if gcd(a, b) == 1)  # noqa: E731
@@ -51,7 +51,7 @@ def test_pretzel_family_ordered_tuples_zero_only_when_asked():
 
 def test_pretzel_knot_rule_matches_components():
     # P(p1..pk) is a knot iff exactly one p_i is even, or k and all p_i are odd
-    # (REFERENCES.md §3, common practice); checked against the built diagrams.
+    # (SOURCES.md §3, common practice); checked against the built diagrams.
     import itertools
     for k in (1, 2, 3):
         for t in itertools.product([-3, -2, -1, 0, 1, 2, 3], repeat=k):

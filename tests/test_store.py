@@ -48,7 +48,7 @@ def test_chunk_round_trip_and_manifest_checksums(tmp_path):
     entry = s.write_chunk(0, res)
     back = read_table(s.dir, "diagrams").to_pylist()
     assert [r["notation"] for r in back] == ["torus:2,3", "torus:2,4"]
-    assert back[0]["jones"] == "[[1,1],[3,1],[4,-1]]"  # positive trefoil (DESIGN.md pin)
+    assert back[0]["jones"] == "[[1,1],[3,1],[4,-1]]"  # positive trefoil (README.md pin)
     assert back[0]["jones_terms"] == [{"e2": 2, "c": "1"}, {"e2": 6, "c": "1"}, {"e2": 8, "c": "-1"}]
     assert entry["parts"]["diagrams"]["rows"] == 2
     assert "rejects" not in entry["parts"]  # no empty parts per chunk

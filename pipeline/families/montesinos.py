@@ -4,7 +4,7 @@ M(β1/α1, …, βr/αr) = N(T1 + ⋯ + Tr), Ti the rational tangle of Conway fr
 βi/αi (an integer n is the tangle n/1, the Euler-number twists).  Its determinant
 is |Σ_i βi Π_{j≠i} αj|.  The pretzel link P(p1, …, pk) is M(1/p1, …, 1/pk).
 
-The crossing picture is ``PICTURE`` = −1, fixed by DESIGN.md's pins ``pretzel:-2,3,3``
+The crossing picture is ``PICTURE`` = −1, fixed by README.md's pins ``pretzel:-2,3,3``
 = ``torus:3,4`` and P(p, q) = T(2, p+q) (checked with the Jones polynomial in the
 tests).  It is the mirror of the two-bridge picture, so a Montesinos fraction f reads
 as −f in ``rational:`` terms: ``montesinos:3`` = ``rational:3/-1`` is the *negative*

@@ -3,7 +3,7 @@
 Column i is a vertical twist region of |p_i| crossings (the tangle 1/p_i); the
 columns stand side by side and are closed top and bottom, i.e. P(p1, …, pk) =
 M(1/p1, …, 1/pk).  A zero entry is a column with no crossings (the ∞ tangle).
-Handedness is fixed by DESIGN.md: ``pretzel:-2,3,3`` = ``torus:3,4``; then
+Handedness is fixed by README.md: ``pretzel:-2,3,3`` = ``torus:3,4``; then
 P(p, q) = T(2, p+q) and negating every entry gives the mirror.
 det P(p1, …, pk) = |Σ_i Π_{j≠i} p_j|.
 

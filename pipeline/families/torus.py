@@ -1,7 +1,7 @@
 """Torus knots and links T(p, q).
 
 For p, q > 0, T(p, q) is the closure of the positive braid (σ1 σ2 ⋯ σ_{p−1})^q on p
-strands (DESIGN.md: ``torus:2,3`` is the positive trefoil).  A negative parameter
+strands (README.md: ``torus:2,3`` is the positive trefoil).  A negative parameter
 gives the mirror image; two negative parameters cancel.  gcd(p, q) components.
 
 References

@@ -1,6 +1,6 @@
 """Alexander polynomial Δ(t) and Conway polynomial ∇(z), Conway-normalised.
 
-Normalisation (DESIGN.md, contract): Δ(t) = ∇(t^½ − t^−½).  For a knot this means
+Normalisation (README.md, contract): Δ(t) = ∇(t^½ − t^−½).  For a knot this means
 Δ(t) = Δ(1/t) and Δ(1) = 1 (trefoil t − 1 + t⁻¹, figure-eight −t + 3 − t⁻¹).  For a
 link of μ ≥ 2 components it is the polynomial det(t^½V − t^−½Vᵀ) of a Seifert matrix
 V: exponents lie in (μ−1)/2 + Z, Δ(1/t) = (−1)^(μ−1) Δ(t), and a split link has 0.

@@ -180,7 +180,7 @@ def _nonunit(factors: Sequence[int]) -> int:
 def unknotting_lower_bound(invariant_factors: Sequence[int]) -> int:
     """Knots: u(K) ≥ number of non-unit invariant factors (Wendt 1937).
 
-    The factors are those of the colouring module (DESIGN.md): for a knot they are
+    The factors are those of the colouring module (README.md): for a knot they are
     the invariant factors of H₁(Σ₂), and a crossing change alters a presentation
     matrix of H₁(Σ₂) in one row, so u(K) ≥ its minimal number of generators.
     """

@@ -10,7 +10,7 @@ components (free loops included), n the number of crossings, det the determinant
 ============================  ==========  ===============================================  ======================================
 name                          applies to  relation                                         source
 ============================  ==========  ===============================================  ======================================
-determinant_product           all         det = Π invariant factors                        DESIGN.md (definition)
+determinant_product           all         det = Π invariant factors                        README.md (definition)
 determinant_odd               knots       det is odd                                       common practice
 alexander_at_one              knots       Δ(1) = 1                                         Conway 1970 normalisation
 alexander_symmetric           all         Δ(1/t) = (−1)^(c−1) Δ(t)                         Conway 1970; Kauffman 1981

@@ -1,6 +1,6 @@
 """Chirality verdicts from the Jones polynomial and the signature.
 
-Vocabulary (DESIGN.md, closed): this module returns ``chiral (jones)``,
+Vocabulary (README.md, closed): this module returns ``chiral (jones)``,
 ``chiral (signature)`` or ``unknown``; the normal-form verdicts are added by the
 classifier.
 

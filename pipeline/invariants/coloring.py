@@ -1,6 +1,6 @@
 """Fox colourings: colouring matrix, invariant factors, determinant, colouring counts.
 
-Definitions (DESIGN.md, contract):
+Definitions (README.md, contract):
 
 * **Colouring matrix** M: one row per crossing (PD order), one column per arc (maximal
   over-strand, in ``diagram.arcs`` order) and then one zero column per free loop.  The

@@ -25,7 +25,7 @@ incoming under-strand) the A-smoothing joins ``a–b`` and ``c–d`` (the region
 swept counterclockwise by the over-strand, as in [1]), the B-smoothing joins
 ``a–d`` and ``b–c``.  ``<unknot> = 1``; each further loop multiplies by δ.
 The Jones polynomial is ``V(L) = (−A³)^(−w) <L>`` at ``A = t^(−1/4)``, so the
-positive trefoil has ``V = t + t³ − t⁴`` (DESIGN.md, normalisation contract).
+positive trefoil has ``V = t + t³ − t⁴`` (README.md, normalisation contract).
 
 Polynomials in A are stored as ``(offset, fmpz_poly)`` pairs meaning
 ``A^offset · p(A)`` (exact python-flint integer polynomials).  Their degrees are
@@ -341,7 +341,7 @@ def jones_polynomial(diagram: Diagram, *, budget: Optional[int] = None) -> Laure
 
     ``V(L) = (−A³)^(−w) <L>`` evaluated at ``A = t^(−1/4)``, w the writhe [1, 2];
     equivalently the skein relation ``t⁻¹V(L₊) − tV(L₋) = (t^½ − t^−½)V(L₀)`` with
-    ``V(unknot) = 1`` (DESIGN.md normalisation).
+    ``V(unknot) = 1`` (README.md normalisation).
 
     Parameters
     ----------

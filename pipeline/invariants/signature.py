@@ -28,7 +28,7 @@ the same colour.
 * **Signature** σ = sign(G) − μ, computed per piece and added up (the signature
   is additive under split union; a free loop contributes 0).
 
-With these conventions the positive trefoil ``torus:2,3`` has σ = −2 (DESIGN.md,
+With these conventions the positive trefoil ``torus:2,3`` has σ = −2 (README.md,
 contract: positive knots have σ ≤ 0); σ agrees with sign(V + Vᵀ) for a Seifert
 matrix V with V_ij = lk(a_i, a_j⁺) (checked in the tests against a Seifert
 surface of braid closures and Brieskorn's count for torus knots [2]_).
