@@ -270,11 +270,8 @@ def diagram_pictures(census: Census, plots: Path, *, classes: int = 4) -> list[t
     smallest prime dividing the determinant); returns ``(caption, file name)`` pairs for
     the pictures actually written, ``[]`` when drawing is unavailable.
     """
-    try:
-        from .draw import draw_diagram
-        from .notation import parse
-    except ImportError:
-        return []
+    from .draw import draw_diagram
+    from .notation import parse
     d = census.diagrams
     if not len(d):
         return []

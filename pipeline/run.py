@@ -69,11 +69,8 @@ def versions() -> dict:
     from .invariants.all import ALGORITHM_VERSIONS
     from schemas.tables import SCHEMA_VERSION
     out = {"knotledger": __version__, "schema": SCHEMA_VERSION, "algorithms": dict(ALGORITHM_VERSIONS)}
-    try:
-        from . import classify
-        out["classify"] = str(getattr(classify, "ALGORITHM_VERSION", "1"))
-    except ImportError:
-        out["classify"] = None
+    from . import classify
+    out["classify"] = str(getattr(classify, "ALGORITHM_VERSION", "1"))
     return out
 
 
@@ -224,11 +221,7 @@ def _run_dask(pending: Iterator, opts: dict, address: str, commit) -> None:
 
 def build_knots(store) -> None:
     """The knots table from the committed diagrams rows (whole census only)."""
-    try:
-        from .classify import build_knots_table
-    except ImportError:
-        store.write_knots([], "pipeline.classify not installed: knots table left empty")
-        return
+    from .classify import build_knots_table
     from schemas.tables import KNOTS
     from .knots_build import knots_rows
     knots = []

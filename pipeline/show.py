@@ -66,17 +66,12 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
 
 
 # ------------------------------------------------------------------ collecting
-def collect(diagram: Diagram, *, max_modulus: int = 16, extra_primes: tuple[int, ...] = ()) -> dict:
-    """The census row of ``diagram`` (via ``compute_all`` when this build has it),
-    plus witnesses and fewest colours for ``extra_primes``."""
-    try:
-        from .invariants.all import compute_all
-    except ImportError:
-        compute_all = None
-    if compute_all is not None:
-        row = dict(compute_all(diagram, max_modulus=max_modulus))
-    else:
-        row = _colouring_row(diagram, max_modulus)
+def collect(diagram: Diagram, *, max_modulus: int = 16, extra_primes: tuple[int, ...] = (),
+            notation: str | None = None) -> dict:
+    """The census row of ``diagram`` (:func:`~pipeline.invariants.all.compute_all`, exactly
+    what a census stores), plus witnesses and fewest colours for ``extra_primes``."""
+    from .invariants.all import compute_all
+    row = dict(compute_all(diagram, max_modulus=max_modulus, notation=notation))
     if row.get("determinant") is None:  # the colouring part failed; the page says so
         return row
     row["witnesses"] = dict(row.get("witnesses") or {})
@@ -87,24 +82,6 @@ def collect(diagram: Diagram, *, max_modulus: int = 16, extra_primes: tuple[int,
             row["witnesses"][p] = None if w is None else list(w)
             row["min_colors"][p] = None if w is None else coloring.min_colors(diagram, p)
     return row
-
-
-def _colouring_row(diagram: Diagram, max_modulus: int) -> dict:
-    """The colouring part alone, for builds without ``compute_all``."""
-    factors = coloring.invariant_factors(diagram)
-    det = coloring.determinant(diagram)
-    counts = coloring.coloring_counts(diagram, max_modulus=max_modulus)
-    witnesses, fewest = {}, {}
-    for p in range(2, max_modulus + 1):
-        if all(p % q for q in range(2, isqrt(p) + 1)) and det % p == 0:
-            w = coloring.witness_coloring(diagram, p)
-            if w is not None:
-                witnesses[p], fewest[p] = list(w), coloring.min_colors(diagram, p)
-    return {"crossings": diagram.n_crossings, "components": diagram.n_components,
-            "free_loops": diagram.free_loops, "writhe": diagram.writhe, "determinant": det,
-            "invariant_factors": list(factors), "colorings": counts,
-            "colorable_moduli": [n for n, c in counts.items() if c > n],
-            "witnesses": witnesses, "min_colors": fewest, "status": "ok"}
 
 
 # ------------------------------------------------------------------ JSON
@@ -293,7 +270,7 @@ def main(args: argparse.Namespace) -> int:
     """Run ``knotledger show``; returns the exit code (0)."""
     diagram = parse(args.diagram)
     primes = tuple(dict.fromkeys(args.witness))
-    row = collect(diagram, max_modulus=args.max_modulus, extra_primes=primes)
+    row = collect(diagram, max_modulus=args.max_modulus, extra_primes=primes, notation=args.diagram)
     if args.json:
         obj = to_json_object(diagram, args.diagram.strip(), row)
         sys.stdout.write(json.dumps(obj, ensure_ascii=False) + "\n")

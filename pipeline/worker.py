@@ -16,7 +16,6 @@ killed by the parent (see :mod:`pipeline.run`).
 
 from __future__ import annotations
 
-import hashlib
 import json
 import os
 import signal
@@ -68,10 +67,7 @@ def _jsonable(v: Any) -> Any:
 
 
 def _diagram_id(d) -> str:
-    try:
-        from .classify import diagram_id
-    except ImportError:
-        return hashlib.sha256(d.relabel().to_notation().encode()).hexdigest()
+    from .classify import diagram_id
     return diagram_id(d)
 
 
@@ -137,10 +133,7 @@ def _fill(row: dict, inv: dict) -> list[dict]:
 
 
 def _knot_key(row: dict, inv: dict, d) -> None:
-    try:
-        from .classify import knot_key
-    except ImportError:
-        return
+    from .classify import knot_key
     got = knot_key({**inv, **{k: v for k, v in row.items() if k not in inv}, "diagram": d})
     extra = {}
     for k, v in (got or {}).items():
