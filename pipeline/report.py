@@ -268,7 +268,7 @@ def diagram_pictures(census: Census, plots: Path, *, classes: int = 4) -> list[t
 
     Uses ``pipeline.draw.draw_diagram(diagram, path, coloring=p)`` when importable (p the
     smallest prime dividing the determinant); returns ``(caption, file name)`` pairs for
-    the pictures actually written, ``[]`` when drawing is unavailable.
+    the pictures actually written (``[]`` for an empty census).
     """
     from .draw import draw_diagram
     from .notation import parse
