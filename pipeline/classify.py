@@ -321,8 +321,13 @@ def build_knots_table(rows: list[dict]) -> list[dict]:
             "crossing_number": cn,
             "crossing_number_source": src,
             "_fps": fps,
+            "_dids": did,
         })
     proofs = {r["knot_key"]: r["proof"] for r in out}
+    keys_of_did: dict[str, set] = {}
+    for row in out:
+        for d in row["_dids"]:
+            keys_of_did.setdefault(d, set()).add(row["knot_key"])
     for row in out:
         shared = set()
         for f in row.pop("_fps"):
@@ -330,6 +335,12 @@ def build_knots_table(rows: list[dict]) -> list[dict]:
         shared.discard(row["knot_key"])
         row["fingerprint_shared_with"] = sorted(shared)
         row["distinctness_note"] = _distinctness_note(row, sorted(shared), proofs)
+        same_diagram = sorted({k for d in row.pop("_dids") for k in keys_of_did[d]
+                               if k != row["knot_key"] and proofs.get(k) == "normal form"})
+        if row["proof"] != "normal form" and same_diagram:
+            # an identical diagram (equal diagram_id, see pipeline.canonical) is an isotopy
+            row["distinctness_note"] = ("the same type as " + ", ".join(same_diagram) +
+                                        ": an identical diagram (same diagram_id) has that key")
     return out
 
 

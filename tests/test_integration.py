@@ -54,3 +54,16 @@ def test_duplicates_and_dt_rows_are_marked(tmp_path, capsys):
                      "--format", "json"]) == 0
     rows = json.loads(capsys.readouterr().out)
     assert [r["duplicate_of"] for r in rows] == [None, 0, None, 2, 2, None]
+
+
+def test_typed_diagram_identical_to_a_family_member_is_named_in_the_knots_table(tmp_path):
+    # The README trefoil PD code is the diagram of torus:2,3 relabelled (same diagram_id),
+    # so the knots table says its fingerprint key is the same type as the normal-form key.
+    (tmp_path / "spec.toml").write_text(SPEC + '\n[[family]]\nkind = "torus"\np = 2\nq = 3\n')
+    (tmp_path / "typed.txt").write_text("pd:[[1,5,2,4],[3,1,4,6],[5,3,6,2]]\n")
+    out = tmp_path / "out"
+    assert cli_main(["run", str(tmp_path / "spec.toml"), "--out", str(out), "--jobs", "1", "--quiet"]) == 0
+    knots = pipeline.open_census(out).knots.set_index("knot_key")
+    fp = [k for k in knots.index if k.startswith("fp")]
+    assert len(fp) == 1
+    assert knots.loc[fp[0], "distinctness_note"].startswith("the same type as torus:2,3")
