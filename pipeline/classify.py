@@ -349,6 +349,19 @@ def _family_of_key(k: str) -> str:
     return "two-bridge/torus" if fam in ("2b", "torus") else fam
 
 
+def _small_montesinos(key: str) -> bool:
+    """True for ``mont:`` keys of three tangles with denominators (2,2,n), (2,3,3), (2,3,4)
+    or (2,3,5): the elliptic cases outside the hypotheses of some statements of the
+    Bonahon–Siebenmann classification, where distinctness is not claimed."""
+    if not key.startswith("mont:"):
+        return False
+    fracs = key.split(":", 2)[2].split(",")
+    if len(fracs) != 3:
+        return False
+    dens = sorted(int(f.split("/")[1]) if "/" in f else 1 for f in fracs)
+    return dens[0] == 2 and (dens[1] == 2 or (dens[1] == 3 and dens[2] in (3, 4, 5)))
+
+
 def _distinctness_note(row: dict, shared: list[str], proofs: dict[str, str]) -> Optional[str]:
     """Why this key is (or is not known to be) different from keys with the same invariants."""
     if not shared:
@@ -356,7 +369,9 @@ def _distinctness_note(row: dict, shared: list[str], proofs: dict[str, str]) -> 
     if row["proof"] != "normal form":
         return "possibly the same type as " + ", ".join(shared) + " (same invariants, no normal form)"
     fp_only = [k for k in shared if proofs.get(k) != "normal form"]
-    same = [k for k in shared if k not in fp_only and _family_of_key(k) == _family_of_key(row["knot_key"])]
+    small = _small_montesinos(row["knot_key"])
+    same = [k for k in shared if k not in fp_only and _family_of_key(k) == _family_of_key(row["knot_key"])
+            and not (small or _small_montesinos(k))]
     other = [k for k in shared if k not in fp_only and k not in same]
     parts = []
     if same:
@@ -364,7 +379,8 @@ def _distinctness_note(row: dict, shared: list[str], proofs: dict[str, str]) -> 
                      "(these invariants cannot separate them, e.g. mutants)")
     if other:
         parts.append("distinctness from " + ", ".join(other) + " not proven (same invariants, "
-                     "normal forms of different families; only the coincidences of tests/SOURCES.md, families item 5 are known)")
+                     "normal forms of different families or a small Montesinos case; only the coincidences "
+                     "of tests/SOURCES.md, families item 5 are known)")
     if fp_only:
         parts.append("possibly the same type as " + ", ".join(fp_only) + " (fingerprint-only rows)")
     return "; ".join(parts)

@@ -449,3 +449,14 @@ def test_a_normal_form_contradicting_the_diagram_is_not_used():
     k = knot_key({"notation": "torus:3,4", "components": 2, "determinant": 3, "invariant_factors": [3]})
     assert k["proof"] == "fingerprint only"
     assert knot_key({"notation": "torus:3,4", "components": 1})["proof"] == "normal form"
+
+
+def test_small_montesinos_cases_do_not_claim_distinctness():
+    # Elliptic cases (2,2,n), (2,3,3), (2,3,4), (2,3,5) lie outside the hypotheses of some
+    # statements of the Bonahon–Siebenmann classification: no distinctness is claimed there.
+    from pipeline.classify import _distinctness_note, _small_montesinos
+    assert _small_montesinos("mont:1/6:1/2,1/3,1/3") and _small_montesinos("mont:0:1/2,1/2,1/9")
+    assert not _small_montesinos("mont:1/105:1/3,1/5,1/7") and not _small_montesinos("2b:7/3")
+    row = {"knot_key": "mont:1/6:1/2,1/3,1/3", "proof": "normal form"}
+    note = _distinctness_note(row, ["mont:5/6:1/2,2/3,1/3"], {"mont:5/6:1/2,2/3,1/3": "normal form"})
+    assert "not proven" in note and "by the classification theorem" not in note
