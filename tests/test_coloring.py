@@ -358,3 +358,32 @@ def test_sparse_euclidean_diagonalisation_equals_sympy_smith_form(seed):
     chain = _smith_chain([s[i, i] for i in range(min(s.shape))])
     assert smith_of_diagonal(found) == sorted(x for x in chain if x != 1)
     assert len(found) == len(chain)  # the rank
+
+
+@pytest.mark.parametrize("seed", range(40))
+def test_unit_pivot_sweep_keeps_the_smith_form_of_random_matrices(seed):
+    # The ±1 pivot stage (Markowitz threshold sweep) on random sparse integer matrices
+    # with many unit entries: Smith(M) = (1, ..., 1) ⊕ Smith(rest), compared with
+    # sympy's Smith form of M (Smith 1861).
+    from pipeline.invariants.sparse_elimination import eliminate_units
+
+    rng = random.Random(1000 + seed)
+    nrows, ncols = rng.randint(1, 9), rng.randint(1, 9)
+    rows = [{c: rng.choice([-3, -2, -1, -1, 1, 1, 2, 3, 4, 6])
+             for c in rng.sample(range(ncols), rng.randint(0, min(4, ncols)))} for _ in range(nrows)]
+    dense = Matrix([[r.get(c, 0) for c in range(ncols)] for r in rows])
+    col_rows = [set() for _ in range(ncols)]
+    for i, r in enumerate(rows):
+        for c in r:
+            col_rows[c].add(i)
+    rest, pivots = eliminate_units([dict(r) for r in rows], col_rows)
+    assert all(v not in (1, -1) and v for r in rest for v in r.values())
+    s_all = smith_normal_form(dense, domain=ZZ) if any(rows) else dense
+    expected = _smith_chain([s_all[i, i] for i in range(min(s_all.shape))])
+    if rest:
+        m_rest = Matrix([[r.get(c, 0) for c in range(ncols)] for r in rest])
+        s_rest = smith_normal_form(m_rest, domain=ZZ)
+        got = [1] * len(pivots) + [s_rest[i, i] for i in range(min(s_rest.shape))]
+    else:
+        got = [1] * len(pivots)
+    assert sorted(_smith_chain(got)) == sorted(expected)

@@ -31,12 +31,13 @@ References
 
 from __future__ import annotations
 
+from collections import Counter
 from functools import lru_cache
 from math import gcd, isqrt, lcm, prod
 from typing import Optional
 
 from ..diagram import Diagram
-from .sparse_elimination import diagonalise, eliminate, smith_of_diagonal
+from .sparse_elimination import diagonalise, eliminate, eliminate_units, smith_of_diagonal
 
 __all__ = [
     "coloring_matrix",
@@ -104,40 +105,82 @@ def coloring_matrix(diagram: Diagram) -> list[list[int]]:
 DENSE_LIMIT = 24
 
 
+def _rows_and_columns(diagram: Diagram) -> tuple[list[dict[int, int]], list[set[int]]]:
+    """:func:`_sparse_matrix` rows (no zero entries, empty rows kept) and, per column,
+    the set of rows with an entry there; built in one pass over the PD code."""
+    arc = diagram.arc_of_label
+    col_rows: list[set[int]] = [set() for _ in range(len(diagram.arcs) + diagram.free_loops)]
+    rows = []
+    for i, ((a, b, c, d), sign) in enumerate(zip(diagram.pd, diagram.signs)):
+        over = arc[d if sign > 0 else b]
+        ua, uc = arc[a], arc[c]
+        if over != ua and over != uc and ua != uc:
+            rows.append({over: 2, ua: -1, uc: -1})
+            col_rows[over].add(i)
+            col_rows[ua].add(i)
+            col_rows[uc].add(i)
+            continue
+        row: dict[int, int] = {}
+        for col, v in ((over, 2), (ua, -1), (uc, -1)):  # a kink: entries add up
+            row[col] = row.get(col, 0) + v
+        row = {k: v for k, v in row.items() if v}
+        for col in row:
+            col_rows[col].add(i)
+        rows.append(row)
+    return rows, col_rows
+
+
 @lru_cache(maxsize=64)
 def _smith(diagram: Diagram) -> tuple[tuple[int, ...], int, int]:
     """(Smith diagonal entries ≠ 1 ascending, rank, columns) of the colouring matrix.
 
-    Three stages, each unimodular: ±1 pivots eliminated sparsely; if more than
-    ``DENSE_LIMIT`` rows remain, sparse Euclidean diagonalisation (stopped if fill-in
-    grows past eight times the start); the rest by dense ``fmpz_mat.snf``.  The diagonal
-    entries collected are put in Smith order by a coprime base.
+    Stages, each keeping the Smith form: ±1 pivots eliminated sparsely; while the
+    entries left have a common factor g > 1, divide it out (Smith(g·A) = g·Smith(A)) and
+    eliminate the ±1 pivots that appear; if more than ``DENSE_LIMIT`` rows remain,
+    sparse Euclidean diagonalisation (stopped if fill-in grows past eight times the
+    start); the rest by dense ``fmpz_mat.snf``.  The diagonal entries collected are put
+    in Smith order by a coprime base.
     """
-    rows, ncols = _sparse_matrix(diagram)
-    elim = eliminate(rows, ncols)
-    rank = len(elim.pivots)
-    rest = elim.rest
+    rows, col_rows = _rows_and_columns(diagram)
+    ncols = len(col_rows)
+    rest, pivots = eliminate_units(rows, col_rows)  # the rows are ours: eliminated in place
+    rank = len(pivots)
     entries: list[int] = []
+    scale = 1  # the remainder stands for scale · rest
+    while rest:
+        g = gcd(*(v for r in rest for v in r.values()))
+        if g == 1:
+            break
+        scale *= g
+        rows = [{c: v // g for c, v in r.items()} for r in rest]
+        col_rows = [set() for _ in range(ncols)]
+        for i, r in enumerate(rows):
+            for c in r:
+                col_rows[c].add(i)
+        rest, pivots = eliminate_units(rows, col_rows)
+        entries.extend([scale] * len(pivots))
+    found: list[int] = []
     if len(rest) > DENSE_LIMIT:
         found, rest = diagonalise(rest, max_nnz=8 * sum(len(r) for r in rest) + 1000)
-        entries.extend(found)
     if rest:
-        cols = sorted({c for r in rest for c in r})
-        where = {c: k for k, c in enumerate(cols)}
-        dense = [[0] * len(cols) for _ in rest]
-        for i, r in enumerate(rest):
-            for c, v in r.items():
-                dense[i][where[c]] = v
-        entries.extend(_dense_smith_diagonal(dense))
+        found.extend(_dense_smith_diagonal(rest))
+    entries.extend(scale * d for d in found)
     rank += len(entries)
     return tuple(smith_of_diagonal(entries)), rank, ncols
 
 
-def _dense_smith_diagonal(dense: list[list[int]]) -> list[int]:
-    """The nonzero diagonal entries (made positive) of the Smith form, via flint."""
+def _dense_smith_diagonal(rest: list[dict[int, int]]) -> list[int]:
+    """The nonzero diagonal entries (made positive) of the Smith form of the sparse
+    rows ``rest`` (columns without entries dropped), via flint's dense ``snf``."""
     from flint import fmpz_mat
 
-    s = fmpz_mat(dense).snf()
+    cols = sorted({c for r in rest for c in r})
+    where = {c: k for k, c in enumerate(cols)}
+    m = fmpz_mat(len(rest), len(cols))
+    for i, r in enumerate(rest):
+        for c, v in r.items():
+            m[i, where[c]] = v
+    s = m.snf()
     out = []
     for k in range(min(s.nrows(), s.ncols())):
         d = abs(int(s[k, k]))
@@ -216,8 +259,8 @@ def coloring_counts(diagram: Diagram, *, max_modulus: int = 16) -> dict[int, int
     1. R. H. Fox (1962); R. H. Crowell, R. H. Fox (1963).
     2. J. H. Przytycki, Banach Center Publ. 42 (1998) (formula cited from memory).
     """
-    factors = invariant_factors(diagram)
-    return {n: count_colorings(factors, n) for n in range(2, max_modulus + 1)}
+    factors = Counter(invariant_factors(diagram)).items()  # repeated factors: one gcd each
+    return {n: n * prod(gcd(n, d) ** m for d, m in factors) for n in range(2, max_modulus + 1)}
 
 
 def nontrivially_colorable(factors: tuple[int, ...] | list[int], n: int) -> bool:

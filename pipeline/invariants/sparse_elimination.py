@@ -2,9 +2,10 @@
 
 The colouring matrix of a diagram has three nonzero entries per row (2, −1, −1) and is
 the incidence pattern of a plane graph, so eliminating unit pivots one at a time keeps it
-sparse.  Pivots are chosen greedily by the Markowitz count (r − 1)(c − 1) — r, c the
-numbers of nonzero entries in the pivot's row and column — which bounds the fill-in a
-step can create.
+sparse.  Pivots are chosen by the Markowitz count (r − 1)(c − 1) — r, c the numbers
+of nonzero entries in the pivot's row and column — which bounds the fill-in a step can
+create: over Z/p greedily smallest first (priority queue), over Z (the hot path) by a
+threshold sweep, any pivot whose count is within a limit that grows geometrically.
 
 Over Z only pivots ±1 are taken: adding an integer multiple of one row to another and
 then clearing the pivot's row by column operations are unimodular, so the Smith form of
@@ -26,7 +27,7 @@ import heapq
 from dataclasses import dataclass, field
 from typing import Optional
 
-__all__ = ["Elimination", "eliminate"]
+__all__ = ["Elimination", "eliminate", "eliminate_units"]
 
 Row = dict[int, int]
 
@@ -71,8 +72,8 @@ def eliminate(rows: list[Row], ncols: int, modulus: Optional[int] = None) -> Eli
 
     Notes
     -----
-    Markowitz counts are refreshed lazily: a popped candidate whose count has grown is
-    pushed back, and the entries a pivot step changed are pushed with fresh counts
+    Over Z see :func:`eliminate_units`.  Over Z/p Markowitz counts are refreshed
+    lazily: a popped candidate whose count has grown is pushed back, and the entries a pivot step changed are pushed with fresh counts
     (pushing whole rows would cost O(n) per step once a row has grown long).
     """
     if not modulus:
@@ -140,66 +141,103 @@ def eliminate(rows: list[Row], ncols: int, modulus: Optional[int] = None) -> Eli
     return Elimination(rest=rest, pivots=pivots, ncols=ncols)
 
 def _eliminate_integer(rows: list[Row], ncols: int) -> tuple[list[Row], list[tuple[Row, int]]]:
-    """:func:`eliminate` over Z (pivots ±1), written out for speed: the hot path."""
+    """:func:`eliminate` over Z (pivots ±1) on a copy of ``rows``."""
     work = [{c: v for c, v in r.items() if v} for r in rows]
-    work = [r for r in work if r]
-    col_rows = [set() for _ in range(ncols)]
+    col_rows: list[set[int]] = [set() for _ in range(ncols)]
     for i, r in enumerate(work):
         for c in r:
             col_rows[c].add(i)
+    return eliminate_units(work, col_rows)
+
+
+def eliminate_units(work: list[Row], col_rows: list[set[int]]) -> tuple[list[Row], list[tuple[Row, int]]]:
+    """Eliminate ±1 pivots over Z in place, by a Markowitz threshold sweep.
+
+    Parameters
+    ----------
+    work : list of dict
+        Sparse integer rows without zero entries; modified in place (the caller owns them).
+    col_rows : list of set of int
+        For each column, the indices of the rows with a nonzero entry there; modified.
+
+    Returns
+    -------
+    (list of dict, list of (dict, int))
+        The remaining nonzero rows (none has a ±1 entry) and the pivot rows as in
+        :class:`Elimination`.
+
+    Notes
+    -----
+    Rows wait on a stack.  A row popped takes its ±1 entry in the shortest column as
+    pivot when the Markowitz count (r − 1)(c − 1) is at most a limit (first 4, the count
+    of a generic crossing row); otherwise it is parked.  Rows changed by a pivot step
+    are pushed again.  When the stack runs dry the parked rows are swept again with the
+    limit multiplied by 4, so every step's fill-in stays within the current limit, as in
+    Markowitz's rule with a threshold, without a priority queue.  Each step is
+    unimodular (Smith 1861).
+    """
     alive = [True] * len(work)
-    heappush, heappop = heapq.heappush, heapq.heappop
-    heap = [((len(r) - 1) * (len(col_rows[c]) - 1), i, c)
-            for i, r in enumerate(work) for c, v in r.items() if v == 1 or v == -1]
-    heapq.heapify(heap)
-    pivots = []
-    while heap:
-        cost, i, c = heappop(heap)
-        if not alive[i]:
-            continue
-        r = work[i]
-        v = r.get(c)
-        if v != 1 and v != -1:
-            continue
-        col = col_rows[c]
-        actual = (len(r) - 1) * (len(col) - 1)
-        if actual > cost:
-            heappush(heap, (actual, i, c))
-            continue
-        alive[i] = False
-        del r[c]
-        for c2 in r:
-            col_rows[c2].discard(i)
-        col.discard(i)
-        if v == -1:
+    pivots: list[tuple[Row, int]] = []
+    stack = list(range(len(work) - 1, -1, -1))
+    parked: list[int] = []
+    limit = 4
+    while True:
+        pop, push = stack.pop, stack.append
+        while stack:
+            i = pop()
+            if not alive[i]:
+                continue
+            r = work[i]
+            best = 0
+            for c, v in r.items():
+                if v == 1 or v == -1:
+                    k = len(col_rows[c])
+                    if not best or k < best:
+                        best = k
+                        bc = c
+            if not best:
+                if not r:
+                    alive[i] = False
+                continue
+            if (len(r) - 1) * (best - 1) > limit:
+                parked.append(i)
+                continue
+            alive[i] = False
+            v = r.pop(bc)
+            col = col_rows[bc]
+            col.discard(i)
             for c2 in r:
-                r[c2] = -r[c2]
-        items = tuple(r.items())
-        for j in col:
-            rj = work[j]
-            f = rj.pop(c)
-            for c2, a in items:
-                old = rj.get(c2)
-                if old is None:
-                    rj[c2] = -f * a
-                    col_rows[c2].add(j)
-                else:
-                    nv = old - f * a
-                    if nv:
-                        rj[c2] = nv
+                col_rows[c2].discard(i)
+            if v == -1:
+                for c2 in r:
+                    r[c2] = -r[c2]
+            items = tuple(r.items())
+            for j in col:
+                rj = work[j]
+                f = rj.pop(bc)
+                for c2, a in items:
+                    old = rj.get(c2)
+                    if old is None:
+                        rj[c2] = -f * a
+                        col_rows[c2].add(j)
                     else:
-                        del rj[c2]
-                        col_rows[c2].discard(j)
-            if rj:
-                lr = len(rj) - 1
-                for c2, _ in items:
-                    w = rj.get(c2)
-                    if w == 1 or w == -1:
-                        heappush(heap, (lr * (len(col_rows[c2]) - 1), j, c2))
-            else:
-                alive[j] = False
-        col.clear()
-        pivots.append((r, c))
+                        nv = old - f * a
+                        if nv:
+                            rj[c2] = nv
+                        else:
+                            del rj[c2]
+                            col_rows[c2].discard(j)
+                if rj:
+                    push(j)
+                else:
+                    alive[j] = False
+            col.clear()
+            pivots.append((r, bc))
+        if not parked:
+            break
+        limit *= 4
+        parked.reverse()
+        stack, parked = parked, []
     return [work[i] for i in range(len(work)) if alive[i]], pivots
 
 
