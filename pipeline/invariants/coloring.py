@@ -148,7 +148,11 @@ def _smith(diagram: Diagram) -> tuple[tuple[int, ...], int, int]:
     entries: list[int] = []
     scale = 1  # the remainder stands for scale · rest
     while rest:
-        g = gcd(*(v for r in rest for v in r.values()))
+        g = 0
+        for r in rest:
+            g = gcd(g, *r.values())
+            if g == 1:
+                break
         if g == 1:
             break
         scale *= g

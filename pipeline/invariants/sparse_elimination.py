@@ -147,24 +147,26 @@ def _eliminate_integer(rows: list[Row], ncols: int) -> tuple[list[Row], list[tup
     for i, r in enumerate(work):
         for c in r:
             col_rows[c].add(i)
-    return eliminate_units(work, col_rows)
+    rest, pivots = eliminate_units(work, col_rows)
+    return rest, [(r if v == 1 else {c2: -a for c2, a in r.items()}, c) for r, c, v in pivots]
 
 
-def eliminate_units(work: list[Row], col_rows: list[set[int]]) -> tuple[list[Row], list[tuple[Row, int]]]:
+def eliminate_units(work: list[Optional[Row]], col_rows: list[set[int]]) -> tuple[list[Row], list[tuple[Row, int, int]]]:
     """Eliminate ±1 pivots over Z in place, by a Markowitz threshold sweep.
 
     Parameters
     ----------
     work : list of dict
-        Sparse integer rows without zero entries; modified in place (the caller owns them).
+        Sparse integer rows without zero entries; modified in place (the caller owns
+        them; eliminated and emptied rows are replaced by None).
     col_rows : list of set of int
         For each column, the indices of the rows with a nonzero entry there; modified.
 
     Returns
     -------
-    (list of dict, list of (dict, int))
-        The remaining nonzero rows (none has a ±1 entry) and the pivot rows as in
-        :class:`Elimination`.
+    (list of dict, list of (dict, int, int))
+        The remaining nonzero rows (none has a ±1 entry) and the pivot rows as
+        (tail, c, v): the row was v·e_c + tail, v = ±1, at its pivot step.
 
     Notes
     -----
@@ -176,69 +178,64 @@ def eliminate_units(work: list[Row], col_rows: list[set[int]]) -> tuple[list[Row
     Markowitz's rule with a threshold, without a priority queue.  Each step is
     unimodular (Smith 1861).
     """
-    alive = [True] * len(work)
-    pivots: list[tuple[Row, int]] = []
+    pivots: list[tuple[Row, int, int]] = []
     stack = list(range(len(work) - 1, -1, -1))
     parked: list[int] = []
     limit = 4
+    units = {1, -1}
     while True:
         pop, push = stack.pop, stack.append
         while stack:
             i = pop()
-            if not alive[i]:
-                continue
             r = work[i]
+            if r is None:  # eliminated or emptied
+                continue
             best = 0
             for c, v in r.items():
-                if v == 1 or v == -1:
+                if v in units:
                     k = len(col_rows[c])
                     if not best or k < best:
                         best = k
                         bc = c
             if not best:
                 if not r:
-                    alive[i] = False
+                    work[i] = None
                 continue
             if (len(r) - 1) * (best - 1) > limit:
                 parked.append(i)
                 continue
-            alive[i] = False
-            v = r.pop(bc)
+            work[i] = None
+            v = r.pop(bc)  # the row is v·e_bc + r, and 1/v = v
             col = col_rows[bc]
             col.discard(i)
             for c2 in r:
                 col_rows[c2].discard(i)
-            if v == -1:
-                for c2 in r:
-                    r[c2] = -r[c2]
-            items = tuple(r.items())
             for j in col:
                 rj = work[j]
-                f = rj.pop(bc)
-                for c2, a in items:
-                    old = rj.get(c2)
-                    if old is None:
-                        rj[c2] = -f * a
-                        col_rows[c2].add(j)
-                    else:
-                        nv = old - f * a
-                        if nv:
-                            rj[c2] = nv
+                f = rj.pop(bc) * v
+                for c2, a in r.items():
+                    if c2 in rj:
+                        old = rj[c2] - f * a
+                        if old:
+                            rj[c2] = old
                         else:
                             del rj[c2]
                             col_rows[c2].discard(j)
+                    else:
+                        rj[c2] = -f * a
+                        col_rows[c2].add(j)
                 if rj:
                     push(j)
                 else:
-                    alive[j] = False
+                    work[j] = None
             col.clear()
-            pivots.append((r, bc))
+            pivots.append((r, bc, v))
         if not parked:
             break
         limit *= 4
         parked.reverse()
         stack, parked = parked, []
-    return [work[i] for i in range(len(work)) if alive[i]], pivots
+    return [r for r in work if r], pivots
 
 
 def diagonalise(rows: list[Row], *, max_nnz: Optional[int] = None) -> tuple[list[int], list[Row]]:
