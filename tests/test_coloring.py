@@ -387,3 +387,18 @@ def test_unit_pivot_sweep_keeps_the_smith_form_of_random_matrices(seed):
     else:
         got = [1] * len(pivots)
     assert sorted(_smith_chain(got)) == sorted(expected)
+
+
+@pytest.mark.parametrize("seed", range(20))
+def test_smith_order_of_a_diagonal_equals_sympy(seed):
+    # Both branches (entries already a divisibility chain, and the coprime base) against
+    # sympy's Smith form of the diagonal matrix (Smith 1861).
+    from sympy import diag
+
+    from pipeline.invariants.sparse_elimination import smith_of_diagonal
+
+    rng = random.Random(2000 + seed)
+    pool = [-1, 1, 2, 3, 4, 6, 8, 9, 12, 18, 36, 5, 60] if seed % 2 else [-1, 1, 3, -3, 9, 27, 54]
+    entries = [rng.choice(pool) for _ in range(rng.randint(1, 7))]
+    s = smith_normal_form(diag(*entries), domain=ZZ)
+    assert smith_of_diagonal(entries) == sorted(abs(s[i, i]) for i in range(len(entries)) if abs(s[i, i]) != 1)

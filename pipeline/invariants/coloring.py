@@ -15,9 +15,10 @@ Definitions (README.md, contract):
 * **Colourings**: col_n = n · Π gcd(n, d_i), with gcd(n, 0) = n, counts all Fox
   n-colourings including the n constant ones.
 
-The Smith form is computed by eliminating ±1 pivots sparsely (fewest fill-in first,
-:mod:`.sparse_elimination`) and handing the small dense remainder to python-flint's
-``fmpz_mat.snf``.  Colourings mod a prime come from the same sparse elimination over Z/p.
+The Smith form is computed by eliminating ±1 pivots sparsely (small fill-in first by a
+Markowitz threshold sweep, :mod:`.sparse_elimination`), dividing out a common factor of
+what is left and eliminating again, and handing the small dense remainder to
+python-flint's ``fmpz_mat.snf``.  Colourings mod a prime come from the same sparse elimination over Z/p.
 
 References
 ----------
@@ -55,19 +56,8 @@ __all__ = [
 # ---------------------------------------------------------------------------- matrix
 def _sparse_matrix(diagram: Diagram) -> tuple[list[dict[int, int]], int]:
     """Rows of the colouring matrix as {column: entry} dicts, and the column count."""
-    arc = diagram.arc_of_label
-    rows = []
-    for (a, b, c, d), sign in zip(diagram.pd, diagram.signs):
-        over = arc[d if sign > 0 else b]  # the over-strand runs d -> b when positive
-        ua, uc = arc[a], arc[c]
-        if over != ua and over != uc and ua != uc:
-            rows.append({over: 2, ua: -1, uc: -1})
-            continue
-        row: dict[int, int] = {}
-        for col, v in ((over, 2), (ua, -1), (uc, -1)):  # a kink: entries add up
-            row[col] = row.get(col, 0) + v
-        rows.append({k: v for k, v in row.items() if v})
-    return rows, len(diagram.arcs) + diagram.free_loops
+    rows, col_rows = _rows_and_columns(diagram)
+    return rows, len(col_rows)
 
 
 def coloring_matrix(diagram: Diagram) -> list[list[int]]:
@@ -157,11 +147,11 @@ def _smith(diagram: Diagram) -> tuple[tuple[int, ...], int, int]:
             break
         scale *= g
         rows = [{c: v // g for c, v in r.items()} for r in rest]
-        col_rows = [set() for _ in range(ncols)]
+        col_sets: dict[int, set[int]] = {c: set() for r in rows for c in r}  # columns in use
         for i, r in enumerate(rows):
             for c in r:
-                col_rows[c].add(i)
-        rest, pivots = eliminate_units(rows, col_rows)
+                col_sets[c].add(i)
+        rest, pivots = eliminate_units(rows, col_sets)
         entries.extend([scale] * len(pivots))
     found: list[int] = []
     if len(rest) > DENSE_LIMIT:
@@ -212,9 +202,10 @@ def invariant_factors(diagram: Diagram) -> tuple[int, ...]:
 
     Notes
     -----
-    ±1 pivots are eliminated first in order of fewest fill-in (Markowitz count); each
-    step is unimodular, so the Smith form is unchanged.  The small dense remainder goes
-    to ``flint.fmpz_mat.snf``.  Results are cached per diagram (64 most recent).
+    ±1 pivots are eliminated first, each within a Markowitz-count limit that grows
+    geometrically; each step is unimodular, so the Smith form is unchanged.  A common
+    factor g of the remainder is split off (Smith(g·A) = g·Smith(A)) and the ±1 pivots
+    of A eliminated in turn.  The small dense remainder goes to ``flint.fmpz_mat.snf``.  Results are cached per diagram (64 most recent).
 
     References
     ----------

@@ -25,7 +25,7 @@ from __future__ import annotations
 
 import heapq
 from dataclasses import dataclass, field
-from typing import Optional
+from typing import Optional, Union
 
 __all__ = ["Elimination", "eliminate", "eliminate_units"]
 
@@ -151,7 +151,8 @@ def _eliminate_integer(rows: list[Row], ncols: int) -> tuple[list[Row], list[tup
     return rest, [(r if v == 1 else {c2: -a for c2, a in r.items()}, c) for r, c, v in pivots]
 
 
-def eliminate_units(work: list[Optional[Row]], col_rows: list[set[int]]) -> tuple[list[Row], list[tuple[Row, int, int]]]:
+def eliminate_units(work: list[Optional[Row]], col_rows: Union[list[set[int]], dict[int, set[int]]]
+                    ) -> tuple[list[Row], list[tuple[Row, int, int]]]:
     """Eliminate ±1 pivots over Z in place, by a Markowitz threshold sweep.
 
     Parameters
@@ -159,8 +160,9 @@ def eliminate_units(work: list[Optional[Row]], col_rows: list[set[int]]) -> tupl
     work : list of dict
         Sparse integer rows without zero entries; modified in place (the caller owns
         them; eliminated and emptied rows are replaced by None).
-    col_rows : list of set of int
-        For each column, the indices of the rows with a nonzero entry there; modified.
+    col_rows : list of set of int, or dict of int to set of int
+        For each column (list index or dict key), the indices of the rows with a nonzero
+        entry there; modified.
 
     Returns
     -------
@@ -342,7 +344,8 @@ def smith_of_diagonal(entries: list[int]) -> list[int]:
 
     Uses a coprime base of the entries (no integer factorisation): for each base
     element b, the exponents of b in the entries are sorted, and the k-th largest
-    invariant factor collects the k-th largest exponent of every b.
+    invariant factor collects the k-th largest exponent of every b.  When the distinct
+    entries, sorted, already divide one another they are the factors as they stand.
     """
     from collections import Counter
     from math import gcd
@@ -350,6 +353,9 @@ def smith_of_diagonal(entries: list[int]) -> list[int]:
     counts = Counter(abs(d) for d in entries if abs(d) != 1)
     if not counts:
         return []
+    distinct = sorted(counts)
+    if all(b % a == 0 for a, b in zip(distinct, distinct[1:])):  # already a divisibility chain
+        return [d for d in distinct for _ in range(counts[d])]
     base: list[int] = []
     for v in counts:
         stack = [v]
