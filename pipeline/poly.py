@@ -59,13 +59,14 @@ class Laurent:
         return [[k // 2 if k % 2 == 0 else k / 2, c] for k, c in self._terms]
 
     def to_text(self, var: str = "t") -> str:
-        """Human-readable form, e.g. ``t + t^3 - t^4``."""
+        """Human-readable form, e.g. ``t + t^3 - t^4`` or ``-t^(1/2) - t^(5/2)``."""
         if not self._terms:
             return "0"
         parts = []
         for k, c in self._terms:
             e = Fraction(k, 2)
-            mono = "" if e == 0 else (var if e == 1 else f"{var}^{e}" if e > 0 else f"{var}^({e})")
+            mono = "" if e == 0 else (var if e == 1 else f"{var}^{e}" if e > 0 and e.denominator == 1
+                                      else f"{var}^({e})")
             mag = abs(c)
             body = str(mag) if not mono else (mono if mag == 1 else f"{mag}{mono}")
             parts.append(("-" if c < 0 else "+", body))
