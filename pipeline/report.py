@@ -263,11 +263,12 @@ def _rejects(c: Census, blocks: list) -> None:
                    [[_plain(s), _plain(t), _plain(x)] for s, t, x in list(zip(src, text, r["reason"].tolist()))[:MAX_LISTED]]))
 
 
-def diagram_pictures(census: Census, plots: Path, *, classes: int = 4) -> list[tuple[str, str]]:
-    """Hook for diagram pictures: draw the smallest-crossing knot of a few determinant classes.
+def diagram_pictures(census: Census, plots: Path, *, classes: int = 2) -> list[tuple[str, str]]:
+    """Pictures of representative knots: for every family, the smallest-crossing knot of
+    each of its ``classes`` smallest determinant classes (det ≥ 3; ties by row_id).
 
-    Uses ``pipeline.draw.draw_diagram(diagram, path, coloring=p)`` when importable (p the
-    smallest prime dividing the determinant); returns ``(caption, file name)`` pairs for
+    Each is drawn by :func:`pipeline.draw.draw_diagram` with a witness p-colouring, p the
+    smallest prime dividing the determinant; returns ``(caption, file name)`` pairs for
     the pictures actually written (``[]`` for an empty census).
     """
     from .draw import draw_diagram
@@ -276,22 +277,26 @@ def diagram_pictures(census: Census, plots: Path, *, classes: int = 4) -> list[t
     if not len(d):
         return []
     best: dict = {}
-    for rid, note, cr, comp, det in zip(d["row_id"].tolist(), d["notation"].tolist(), d["crossings"].tolist(),
-                                        d["components"].tolist(), _dets(d)):
+    for rid, fam, note, cr, comp, det in zip(d["row_id"].tolist(), d["family"].tolist(),
+                                             d["notation"].tolist(), d["crossings"].tolist(),
+                                             d["components"].tolist(), _dets(d)):
         if det is None or det < 3 or _plain(comp) != 1:
             continue
-        if det not in best or int(cr) < best[det][0]:
-            best[det] = (int(cr), _plain(note), _plain(rid))
+        key = (str(fam), det)
+        cand = (int(cr), _plain(rid), _plain(note))
+        if key not in best or cand < best[key]:
+            best[key] = cand
     out = []
-    for det in sorted(best)[:classes]:
-        cr, note, rid = best[det]
-        p = next(q for q in range(2, det + 1) if det % q == 0)
-        name = f"diagram_det{det}.png"
-        try:
-            draw_diagram(parse(note), plots / name, coloring=p)
-        except Exception:  # a picture must never break the report
-            continue
-        out.append((f"det {det}: {note} ({cr} crossings), a {p}-colouring", name))
+    for fam in sorted({f for f, _ in best}):
+        for det in sorted(dt for f, dt in best if f == fam)[:classes]:
+            cr, rid, note = best[(fam, det)]
+            p = next(q for q in range(2, det + 1) if det % q == 0)
+            name = f"diagram_{fam}_det{det}.png"
+            try:
+                draw_diagram(parse(note), plots / name, coloring=p)
+            except Exception:  # a picture must never break the report
+                continue
+            out.append((f"{fam}, det {det}: {note} ({cr} crossings), a {p}-colouring", name))
     return out
 
 
