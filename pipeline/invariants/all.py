@@ -60,7 +60,7 @@ def compute_all(diagram: Diagram, *, max_modulus: int = 16, jones_budget: Option
     ``checks`` ({name: bool}), ``checks_failed`` (list of names), ``status``,
     ``timings`` (seconds per invariant).
     """
-    from . import coloring
+    from . import alexander, bounds, checks, chirality, coloring, jones, signature
 
     problems: list[str] = []
     timings: dict[str, float] = {}
@@ -99,40 +99,15 @@ def compute_all(diagram: Diagram, *, max_modulus: int = 16, jones_budget: Option
     row.update(part or {"determinant": None, "invariant_factors": None, "colorings": None,
                         "colorable_moduli": None, "witnesses": None, "min_colors": None})
 
-    alexander = _optional_module("alexander")
-    row["alexander"] = row["conway"] = None
-    if alexander is not None:
-        row["alexander"] = _attempt(problems, timings, "alexander", lambda: alexander.alexander_polynomial(diagram))
-        row["conway"] = _attempt(problems, timings, "conway", lambda: alexander.conway_polynomial(diagram))
-
-    jones = _optional_module("jones")
-    row["jones"] = None
-    if jones is not None:
-        row["jones"] = _attempt(problems, timings, "jones",
-                                lambda: _jones(jones, diagram, notation, jones_budget))
-
-    signature = _optional_module("signature")
-    row["signature"] = row["nullity"] = None
-    if signature is not None:
-        row["signature"] = _attempt(problems, timings, "signature", lambda: signature.signature(diagram))
-        row["nullity"] = _attempt(problems, timings, "nullity", lambda: signature.nullity(diagram))
-
-    bounds = _optional_module("bounds")
-    row["bounds"] = None
-    if bounds is not None and hasattr(bounds, "all_bounds"):
-        row["bounds"] = _attempt(problems, timings, "bounds", lambda: bounds.all_bounds(diagram, row))
-
-    chirality = _optional_module("chirality")
-    row["chirality"], row["chirality_reason"] = "unknown", "not computed"
-    if chirality is not None:
-        verdict = _attempt(problems, timings, "chirality", lambda: chirality.chirality(diagram, row, budget=jones_budget))
-        if verdict is not None:
-            row["chirality"], row["chirality_reason"] = verdict
-
-    checks = _optional_module("checks")
-    row["checks"] = {}
-    if checks is not None:
-        row["checks"] = _attempt(problems, timings, "checks", lambda: checks.run_checks(diagram, row)) or {}
+    row["alexander"] = _attempt(problems, timings, "alexander", lambda: alexander.alexander_polynomial(diagram))
+    row["conway"] = _attempt(problems, timings, "conway", lambda: alexander.conway_polynomial(diagram))
+    row["jones"] = _attempt(problems, timings, "jones", lambda: _jones(jones, diagram, notation, jones_budget))
+    row["signature"] = _attempt(problems, timings, "signature", lambda: signature.signature(diagram))
+    row["nullity"] = _attempt(problems, timings, "nullity", lambda: signature.nullity(diagram))
+    row["bounds"] = _attempt(problems, timings, "bounds", lambda: bounds.all_bounds(diagram, row))
+    verdict = _attempt(problems, timings, "chirality", lambda: chirality.chirality(diagram, row))
+    row["chirality"], row["chirality_reason"] = verdict or ("unknown", "not computed")
+    row["checks"] = _attempt(problems, timings, "checks", lambda: checks.run_checks(diagram, row)) or {}
     row["checks_failed"] = sorted(k for k, ok in row["checks"].items() if not ok)
     row["status"] = "; ".join(problems) if problems else "ok"
     row["timings"] = timings
@@ -147,17 +122,6 @@ def _jones(jones, diagram: Diagram, notation: Optional[str], budget: Optional[in
         if bracket is not None:
             return jones.jones_from_bracket(bracket, diagram.writhe)
     return jones.jones_polynomial(diagram, budget=budget)
-
-
-def _optional_module(name: str):
-    """The invariant module ``name`` if this build has it, else None."""
-    import importlib
-    try:
-        return importlib.import_module(f"{__package__}.{name}")
-    except ModuleNotFoundError as err:
-        if err.name != f"{__package__}.{name}":
-            raise
-        return None
 
 
 def _primes_upto(n: int) -> list[int]:

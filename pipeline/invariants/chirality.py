@@ -126,7 +126,7 @@ def _mirror_values(values: set[tuple]) -> set[tuple]:
     return {(v.invert() if v is not None else None, -s if s is not None else None) for v, s in values}
 
 
-def chirality(diagram: Diagram, values: dict[str, Any], *, budget: Optional[int] = None) -> tuple[str, str]:
+def chirality(diagram: Diagram, values: dict[str, Any]) -> tuple[str, str]:
     """Chirality verdict and its reason, from Jones and signature.
 
     Parameters
@@ -134,12 +134,8 @@ def chirality(diagram: Diagram, values: dict[str, Any], *, budget: Optional[int]
     diagram : Diagram
     values : dict
         Already computed values: ``jones`` (Laurent or None when skipped) and
-        ``signature`` (int or None).  For links the other orientations are computed
-        here (Jones only when ``values['jones']`` was computed).
-    budget : int, optional
-        Accepted for symmetry with the other invariants and unused: the other
-        orientations' values follow from the linking numbers (see
-        :func:`orientation_values`), so nothing is recomputed.
+        ``signature`` (int or None).  For links the other orientations' values follow
+        from these and the linking numbers (:func:`orientation_values`).
 
     Returns
     -------
