@@ -72,6 +72,8 @@ def collect(diagram: Diagram, *, max_modulus: int = 16, extra_primes: tuple[int,
     what a census stores), plus witnesses and fewest colours for ``extra_primes``."""
     from .invariants.all import compute_all
     row = dict(compute_all(diagram, max_modulus=max_modulus, notation=notation))
+    if notation is not None:
+        _add_knot_type(row, diagram, notation)
     if row.get("determinant") is None:  # the colouring part failed; the page says so
         return row
     row["witnesses"] = dict(row.get("witnesses") or {})
@@ -99,6 +101,22 @@ def _jsonable(value: Any) -> Any:
     if value is None or isinstance(value, (bool, int, float, str)):
         return value
     return str(value)
+
+
+def _add_knot_type(row: dict, diagram: Diagram, notation: str) -> None:
+    """The knot key a census would give this diagram typed into a file family, and the
+    normal-form chirality verdict when a classification theorem decides it."""
+    from .classify import knot_key
+    try:
+        got = knot_key({**row, "family": "file", "params": {}, "notation": notation, "diagram": diagram})
+    except Exception as err:  # the page must still show every other invariant
+        row["knot"] = {"error": f"{type(err).__name__}: {err}"}
+        return
+    row["knot"] = {k: got.get(k) for k in ("knot_key", "mirror_key", "proof", "amphichiral",
+                                            "amphichiral_reason", "crossing_number",
+                                            "crossing_number_source") if k in got}
+    if got.get("chirality"):
+        row["chirality"], row["chirality_reason"] = got["chirality"], got.get("chirality_reason")
 
 
 def to_json_object(diagram: Diagram, notation: str, row: dict) -> dict:
@@ -251,6 +269,12 @@ def _other_invariants(row: dict) -> list[str]:
     if "chirality" in row:
         reason = row.get("chirality_reason")
         lines.append(f"  chirality  {row['chirality']}" + (f" ({reason})" if reason else ""))
+    knot = row.get("knot")
+    if isinstance(knot, dict) and knot.get("knot_key"):
+        cn = knot.get("crossing_number")
+        lines.append(f"  knot key   {knot['knot_key']} ({knot.get('proof')}; mirror {knot.get('mirror_key')})")
+        if cn is not None:
+            lines.append(f"  crossing number {cn} ({knot.get('crossing_number_source')})")
     bounds = row.get("bounds")
     if isinstance(bounds, dict) and bounds:
         items = [f"{k} {v}," for k, v in bounds.items()]

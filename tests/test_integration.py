@@ -67,3 +67,16 @@ def test_typed_diagram_identical_to_a_family_member_is_named_in_the_knots_table(
     fp = [k for k in knots.index if k.startswith("fp")]
     assert len(fp) == 1
     assert knots.loc[fp[0], "distinctness_note"].startswith("the same type as torus:2,3")
+
+
+def test_show_names_the_knot_type_like_a_census_would(capsys):
+    # P(−2,3,3) = T(3,4) (SOURCES.md families item 5 *(memory)*); figure-eight b(5,2) is
+    # amphichiral since 2² ≡ −1 (mod 5) (Schubert 1956)
+    assert cli_main(["show", "pretzel:-2,3,3", "--json"]) == 0
+    obj = json.loads(capsys.readouterr().out)
+    assert obj["knot"]["knot_key"] == "torus:3,4" and obj["knot"]["proof"] == "normal form"
+    assert cli_main(["show", "conway:2 2", "--json"]) == 0
+    obj = json.loads(capsys.readouterr().out)
+    assert obj["knot"]["amphichiral"] is True and obj["chirality"] == "amphichiral (normal form)"
+    assert cli_main(["show", "conway:2 2"]) == 0
+    assert "knot key   2b:5/2 (normal form" in capsys.readouterr().out
