@@ -23,6 +23,7 @@ from pipeline import parse  # noqa: E402
 from pipeline.diagram import Diagram  # noqa: E402
 from pipeline.invariants.alexander import _signed_delta, alexander_polynomial  # noqa: E402
 from pipeline.invariants.alexander_matrix import _bareiss, alexander_rows, det_up_to_units  # noqa: E402
+from _bench import best_time, fit_exponent
 
 SIZES = [25, 50, 100, 200, 400]
 
@@ -50,14 +51,6 @@ def _odd(x: float) -> int:
     return k if k % 2 else k + 1
 
 
-def best_time(fn, repeat: int = 3) -> float:
-    best = float("inf")
-    for _ in range(repeat):
-        t0 = time.perf_counter()
-        fn()
-        best = min(best, time.perf_counter() - t0)
-    return best
-
 
 def time_alexander(d: Diagram, repeat: int = 3) -> float:
     """Best time of alexander_polynomial on a fresh copy of ``d`` (validated outside the
@@ -74,13 +67,8 @@ def time_alexander(d: Diagram, repeat: int = 3) -> float:
 
 
 def slope(points):
-    pts = [(math.log(n), math.log(t)) for n, t in points if n >= 50 and t > 0]
-    if len(pts) < 2:
-        return float("nan")
-    mx = sum(x for x, _ in pts) / len(pts)
-    my = sum(y for _, y in pts) / len(pts)
-    sxx = sum((x - mx) ** 2 for x, _ in pts)
-    return sum((x - mx) * (y - my) for x, y in pts) / sxx
+    pts = [(n, t) for n, t in points if n >= 50 and t > 0]
+    return fit_exponent(pts) if len(pts) >= 2 else float("nan")
 
 
 def dense_only(d):

@@ -24,6 +24,7 @@ import time
 from pipeline.canonical import canonical_pd, canonical_text
 from pipeline.classify import knot_key
 from pipeline.notation import parse
+from _bench import fit_exponent as slope
 
 FAMILIES = {
     "T(3,q)": [f"torus:3,{q}" for q in (13, 25, 50, 100, 200, 400)],
@@ -44,12 +45,6 @@ def best_of(fn, repeat):
         best = min(best, time.perf_counter() - t0)
     return best
 
-
-def slope(points):
-    xs = [math.log(n) for n, _ in points]
-    ys = [math.log(t) for _, t in points]
-    mx, my = sum(xs) / len(xs), sum(ys) / len(ys)
-    return sum((x - mx) * (y - my) for x, y in zip(xs, ys)) / sum((x - mx) ** 2 for x in xs)
 
 
 def main(argv=None) -> int:

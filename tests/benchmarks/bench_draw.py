@@ -12,7 +12,6 @@ import os
 import platform
 import sys
 import tempfile
-import time
 from pathlib import Path
 
 sys.path.insert(0, str(Path(__file__).resolve().parents[2]))
@@ -20,6 +19,7 @@ sys.path.insert(0, str(Path(__file__).resolve().parents[2]))
 from pipeline import parse  # noqa: E402
 from pipeline.draw import draw_diagram, layout  # noqa: E402
 from pipeline.draw.geometry import _piece_positions  # noqa: E402
+from _bench import best_time as _time
 
 SIZES = [10, 40, 100, 400]
 RENDER_LIMIT = 100  # rendering beyond this is slow and the labels unreadable anyway
@@ -32,14 +32,6 @@ def families(n: int) -> dict[str, str]:
         "two-bridge conway 2 2 ... 2": "conway:" + " ".join(["2"] * (n // 2)),
     }
 
-
-def _time(fn, repeat: int = 3) -> float:
-    best = float("inf")
-    for _ in range(repeat):
-        t = time.perf_counter()
-        fn()
-        best = min(best, time.perf_counter() - t)
-    return best
 
 
 def main() -> None:

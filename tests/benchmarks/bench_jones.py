@@ -30,6 +30,7 @@ from pipeline.notation import parse
 
 sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), ".."))
 from slow_routes import state_sum_jones  # noqa: E402  (the tests' 2^n reference route)
+from _bench import fit_exponent, short
 
 #: small diagrams timed side by side against the all-states sum (ratios)
 SIDE_BY_SIDE = ["torus:2,9", "torus:3,5", "conway:2 2 2 2 2", "pretzel:3,3,-3,3", "torus:3,7"]
@@ -63,19 +64,6 @@ def fast_route(text: str):
     return None
 
 
-def fit_exponent(points: list[tuple[int, float]]) -> float:
-    """Least-squares slope of log(time) against log(n)."""
-    xs = [math.log(n) for n, _ in points]
-    ys = [math.log(t) for _, t in points]
-    mx, my = sum(xs) / len(xs), sum(ys) / len(ys)
-    return sum((x - mx) * (y - my) for x, y in zip(xs, ys)) / sum((x - mx) ** 2 for x in xs)
-
-
-def short(text: str) -> str:
-    if text.startswith("conway:"):
-        parts = text[7:].split()
-        return f"conway:{parts[0]} x{len(parts)}"
-    return text
 
 
 def main(argv: list[str] | None = None) -> int:

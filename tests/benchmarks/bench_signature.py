@@ -29,6 +29,7 @@ import flint
 
 from pipeline.invariants import signature as sigmod
 from pipeline.notation import parse
+from _bench import fit_exponent, short
 
 FAMILIES = {
     "T(3,q)": [f"torus:3,{q}" for q in (13, 25, 50, 100, 200)],
@@ -89,18 +90,6 @@ def time_signature(text: str, repeat: int) -> tuple[float, int]:
     return best, value
 
 
-def fit_exponent(points: list[tuple[int, float]]) -> float:
-    xs = [math.log(n) for n, _ in points]
-    ys = [math.log(t) for _, t in points]
-    mx, my = sum(xs) / len(xs), sum(ys) / len(ys)
-    return sum((x - mx) * (y - my) for x, y in zip(xs, ys)) / sum((x - mx) ** 2 for x in xs)
-
-
-def short(text: str) -> str:
-    if text.startswith("conway:"):
-        parts = text[7:].split()
-        return f"conway:{parts[0]} x{len(parts)}"
-    return text
 
 
 def main(argv: list[str] | None = None) -> int:
