@@ -17,13 +17,13 @@ __all__ = ["main"]
 
 #: subcommand -> (module, one-line help)
 COMMANDS = {
-    "show": ("pipeline.show", "every invariant of one diagram, with the colouring matrix"),
-    "draw": ("pipeline.draw", "draw a diagram with arc labels and a witness colouring"),
-    "run": ("pipeline.run", "run a census spec and write the Parquet tables"),
-    "query": ("pipeline.query", "read-only SQL over a census directory"),
-    "check": ("pipeline.claims", "test a claimed formula on every row of a census"),
-    "fit": ("pipeline.fit", "propose a closed formula in the family parameters"),
-    "report": ("pipeline.report", "write report.md, report.html and plots for a census"),
+    "show": ("pipeline.present.show", "every invariant of one diagram, with the colouring matrix"),
+    "draw": ("pipeline.present.draw", "draw a diagram with arc labels and a witness colouring"),
+    "run": ("pipeline.census.run", "run a census spec and write the Parquet tables"),
+    "query": ("pipeline.explore.query", "read-only SQL over a census directory"),
+    "check": ("pipeline.explore.claims", "test a claimed formula on every row of a census"),
+    "fit": ("pipeline.explore.fit", "propose a closed formula in the family parameters"),
+    "report": ("pipeline.present.report", "write report.md, report.html and plots for a census"),
 }
 
 

@@ -9,7 +9,7 @@ from __future__ import annotations
 
 import itertools
 
-from pipeline.poly import Laurent
+from pipeline.invariants.poly import Laurent
 
 
 def state_sum_bracket(diagram) -> dict[int, int]:

@@ -6,8 +6,10 @@ from math import gcd
 
 import pytest
 
-from pipeline.notation import parse
-from pipeline.invariants import alexander, coloring, jones
+from pipeline.diagrams.notation import parse
+from pipeline.invariants.alexander import fox as alexander
+from pipeline.invariants.coloring import spectrum as coloring
+from pipeline.invariants.jones import frontier as jones
 from pipeline.invariants.bounds import (
     all_bounds,
     arf_invariant,

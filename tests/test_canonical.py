@@ -1,4 +1,4 @@
-"""Tests of pipeline.canonical: diagram identity up to relabelling, restarts,
+"""Tests of pipeline.diagrams.canonical: diagram identity up to relabelling, restarts,
 reorientation of components, sphere moves and turning the diagram over."""
 
 from __future__ import annotations
@@ -8,11 +8,11 @@ import random
 import pytest
 from hypothesis import given, settings, strategies as st
 
-from pipeline.canonical import canonical_text, diagram_id, turn_over_pd
-from pipeline.diagram import Diagram
-from pipeline.invariants.coloring import invariant_factors
-from pipeline.invariants.jones import jones_polynomial
-from pipeline.notation import parse
+from pipeline.diagrams.canonical import canonical_text, diagram_id, turn_over_pd
+from pipeline.diagrams.diagram import Diagram
+from pipeline.invariants.coloring.spectrum.spectrum import invariant_factors
+from pipeline.invariants.jones.frontier.frontier import jones_polynomial
+from pipeline.diagrams.notation import parse
 
 
 def represent(d: Diagram, rng: random.Random) -> Diagram:
@@ -129,6 +129,6 @@ def test_random_braid_closures_survive_rewriting(word, seed):
 @pytest.mark.parametrize("name", ["torus:3,7", "torus:2,9", "pretzel:3,3,3,3", "braid:1,-2,1,-2,1,-2",
                                   "conway:2 2 2 2", "torus:4,4"])
 def test_automorphism_pruning_does_not_change_the_result(name):
-    from pipeline.canonical import canonical_pd
+    from pipeline.diagrams.canonical import canonical_pd
     d = parse(name)
     assert canonical_pd(d, prune=True) == canonical_pd(d, prune=False)

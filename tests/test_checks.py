@@ -11,9 +11,11 @@ from math import gcd
 import pytest
 import sympy
 
-from pipeline.notation import parse
-from pipeline.poly import Laurent
-from pipeline.invariants import alexander, coloring, jones
+from pipeline.diagrams.notation import parse
+from pipeline.invariants.poly import Laurent
+from pipeline.invariants.alexander import fox as alexander
+from pipeline.invariants.coloring import spectrum as coloring
+from pipeline.invariants.jones import frontier as jones
 from pipeline.invariants.checks import CHECK_NAMES, evaluate_at_root, run_checks
 from pipeline.invariants.signature import nullity, signature
 

@@ -6,10 +6,10 @@ from math import gcd
 
 import pytest
 
-from pipeline.notation import parse
+from pipeline.diagrams.notation import parse
 from pipeline.invariants.bounds import linking_numbers
 from pipeline.invariants.chirality import chirality, orientation_values, reverse_components
-from pipeline.invariants.jones import jones_polynomial
+from pipeline.invariants.jones.frontier.frontier import jones_polynomial
 from pipeline.invariants.signature import signature
 
 VERDICTS = {"chiral (jones)", "chiral (signature)", "unknown"}

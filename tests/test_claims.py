@@ -8,12 +8,12 @@ from pathlib import Path
 import pytest
 
 from _census_fixture import shared_census
-from pipeline import claims as claims_mod
-from pipeline.census_api import open_census
-from pipeline.claims import check_claim
+from pipeline.explore import claims as claims_mod
+from pipeline.census.reader import open_census
+from pipeline.explore.claims import check_claim
 from pipeline.cli import main as cli
 from pipeline.errors import ClaimError
-from pipeline.safe_expr import Null, compile_expression
+from pipeline.explore.safe_expr import Null, compile_expression
 
 
 @pytest.fixture(scope="module")

@@ -1,4 +1,4 @@
-"""Tests of pipeline.classify and pipeline.normal_forms: knot keys by theorem, checked
+"""Tests of pipeline.identify.classify and pipeline.identify.normal_forms: knot keys by theorem, checked
 against the outside (Schubert, Bonahon-Siebenmann, torus-knot facts, published
 coincidences) and against the Jones polynomial / colouring invariants of the diagrams."""
 
@@ -11,16 +11,16 @@ from math import gcd
 
 import pytest
 
-from pipeline.classify import (KeyConflictError, build_knots_table, fingerprint, jones_orientation_set,
+from pipeline.identify.classify import (KeyConflictError, build_knots_table, fingerprint, jones_orientation_set,
                                is_reduced, knot_key, mark_duplicates, normal_form)
-from pipeline.diagram import Diagram
-from pipeline.invariants.alexander import alexander_polynomial
-from pipeline.invariants.coloring import determinant, invariant_factors
+from pipeline.diagrams.diagram import Diagram
+from pipeline.invariants.alexander.fox.fox import alexander_polynomial
+from pipeline.invariants.coloring.spectrum.spectrum import determinant, invariant_factors
 from pipeline.invariants.signature import signature
-from pipeline.invariants.jones import jones_polynomial
-from pipeline.normal_forms import montesinos_nf, pretzel_nf, torus_nf, two_bridge_nf
-from pipeline.notation import parse
-from pipeline.poly import Laurent
+from pipeline.invariants.jones.frontier.frontier import jones_polynomial
+from pipeline.identify.normal_forms import montesinos_nf, pretzel_nf, torus_nf, two_bridge_nf
+from pipeline.diagrams.notation import parse
+from pipeline.invariants.poly import Laurent
 
 from slow_routes import state_sum_jones
 
@@ -454,7 +454,7 @@ def test_a_normal_form_contradicting_the_diagram_is_not_used():
 def test_small_montesinos_cases_do_not_claim_distinctness():
     # Elliptic cases (2,2,n), (2,3,3), (2,3,4), (2,3,5) lie outside the hypotheses of some
     # statements of the Bonahon–Siebenmann classification: no distinctness is claimed there.
-    from pipeline.classify import _distinctness_note, _small_montesinos
+    from pipeline.identify.classify import _distinctness_note, _small_montesinos
     assert _small_montesinos("mont:1/6:1/2,1/3,1/3") and _small_montesinos("mont:0:1/2,1/2,1/9")
     assert not _small_montesinos("mont:1/105:1/3,1/5,1/7") and not _small_montesinos("2b:7/3")
     row = {"knot_key": "mont:1/6:1/2,1/3,1/3", "proof": "normal form"}

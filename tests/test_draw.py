@@ -1,4 +1,4 @@
-"""Tests for pipeline.draw: geometry of the layout, labels, colourings, files, command.
+"""Tests for pipeline.present.draw: geometry of the layout, labels, colourings, files, command.
 
 The geometry is checked from the outside: segment intersections by plain vectorised
 orientation tests (not the module's own checker), crossing signs recomputed from the
@@ -21,7 +21,7 @@ from hypothesis import given, settings, strategies as st
 
 from pipeline import parse
 from pipeline.cli import main as cli_main
-from pipeline.draw import draw_diagram, layout, residue_palette, stray_intersections
+from pipeline.present.draw import draw_diagram, layout, residue_palette, stray_intersections
 from pipeline.errors import KnotLedgerError
 
 # ----------------------------------------------------------------------------- diagrams
@@ -237,7 +237,7 @@ def _matrix_from_picture(diagram, geo) -> list[list[int]]:
 
 @pytest.mark.parametrize("diagram", DIAGRAMS)
 def test_labels_are_the_matrix_labels(diagram):
-    coloring = pytest.importorskip("pipeline.invariants.coloring")
+    coloring = pytest.importorskip("pipeline.invariants.coloring.spectrum.spectrum")
     geo = layout(diagram)
     for v, e in geo["edges"].items():
         assert e["arc"] == diagram.arc_of_label[v] + 1
@@ -314,7 +314,7 @@ def test_drawn_witness_colouring_satisfies_every_crossing(tmp_path, text, p):
 @pytest.mark.parametrize("text,p", [("dt:4 6 8 2", 3), ("torus:2,3", 5), ("torus:2,3", 4)])
 def test_no_nontrivial_colouring_is_a_one_line_error(tmp_path, text, p):
     d = parse(text)
-    from pipeline.invariants.coloring import coloring_matrix
+    from pipeline.invariants.coloring.spectrum.spectrum import coloring_matrix
     assert not _brute_force_nontrivial(coloring_matrix(d), p)  # the slow route agrees
     out = tmp_path / "c.png"
     with pytest.raises(KnotLedgerError, match=rf"no nontrivial {p}-colouring"):
@@ -390,7 +390,7 @@ def test_layout_of_a_large_closure_is_planar():
 def test_smoothing_that_goes_astray_falls_back_to_the_straight_embedding(monkeypatch):
     # force every smoothed edge through two far-away points: all edges then meet off the
     # crossings, and the layout must fall back to Tutte's straight (planar) polylines
-    import pipeline.draw.geometry as geometry
+    import pipeline.present.draw.geometry as geometry
 
     def wild(P, d0, d3):
         return [P[0], (50.0, 50.0), (-50.0, 60.0), P[3]]

@@ -7,7 +7,7 @@ import random
 import pytest
 
 from pipeline import parse
-from pipeline.dt import diagram as dt_diagram
+from pipeline.diagrams.dt import diagram as dt_diagram
 from slow_routes import state_sum_jones
 
 

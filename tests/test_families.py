@@ -7,8 +7,8 @@ from math import gcd
 import pytest
 
 from pipeline import parse
-from pipeline.families import braid, two_bridge
-from pipeline.families.two_bridge import continued_fraction, fraction_of
+from pipeline.diagrams.families import braid, two_bridge
+from pipeline.diagrams.families.two_bridge import continued_fraction, fraction_of
 from fractions import Fraction
 
 

@@ -11,7 +11,7 @@ import sympy
 
 from _census_fixture import shared_census
 from pipeline.cli import main as cli
-from pipeline.fit import fit_family, fit_polynomial
+from pipeline.explore.fit import fit_family, fit_polynomial
 
 
 @pytest.fixture(scope="module")

@@ -1,4 +1,4 @@
-"""Tests of the Kauffman bracket and Jones polynomial (pipeline/invariants/jones.py).
+"""Tests of the Kauffman bracket and Jones polynomial (pipeline/invariants/jones/frontier.py).
 
 Checked three ways: published values and closed formulas (sources beside each
 check, as listed in SOURCES.md), relations with other invariants, and a
@@ -17,13 +17,13 @@ from hypothesis import HealthCheck, assume, example, given, settings
 from hypothesis import strategies as st
 
 from pipeline.errors import BudgetExceeded, NotationError
-from pipeline.families import braid
-from pipeline.families.two_bridge import continued_fraction
-from pipeline.invariants.bracket_fast import (bracket_of_notation, montesinos_bracket, rational_tangle_bracket,
+from pipeline.diagrams.families import braid
+from pipeline.diagrams.families.two_bridge import continued_fraction
+from pipeline.invariants.jones.frontier.tangle_bracket import (bracket_of_notation, montesinos_bracket, rational_tangle_bracket,
                                              two_bridge_bracket)
-from pipeline.invariants.jones import crossing_order, jones_from_bracket, jones_polynomial, kauffman_bracket
-from pipeline.notation import parse
-from pipeline.poly import Laurent
+from pipeline.invariants.jones.frontier.frontier import crossing_order, jones_from_bracket, jones_polynomial, kauffman_bracket
+from pipeline.diagrams.notation import parse
+from pipeline.invariants.poly import Laurent
 
 T_HALF = Laurent({1: 1, -1: -1})  # t^(1/2) - t^(-1/2)
 UNLINK2 = Laurent({1: -1, -1: -1})  # V of the 2-component unlink: -t^(1/2) - t^(-1/2)
@@ -395,7 +395,7 @@ def test_jones_from_bracket_refuses_a_wrong_writhe():
 def test_any_crossing_order_gives_the_same_bracket(text, rnd):
     # the programme is correct for every order, not only the greedy one (Kauffman 1987: the
     # state sum does not depend on the order in which crossings are smoothed)
-    import pipeline.invariants.jones as jones_module
+    import pipeline.invariants.jones.frontier.frontier as jones_module
 
     d = parse(text)
     order = list(range(d.n_crossings))

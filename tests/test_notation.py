@@ -9,7 +9,7 @@ from hypothesis import given, settings, strategies as st
 
 from pipeline import parse
 from pipeline.errors import NotationError
-from pipeline.poly import Laurent
+from pipeline.invariants.poly import Laurent
 from slow_routes import state_sum_jones
 
 POSITIVE_TREFOIL = Laurent.from_exponents([(1, 1), (3, 1), (4, -1)])  # README.md: V = t + t³ − t⁴

@@ -10,10 +10,10 @@ from pathlib import Path
 import pytest
 
 from _census_fixture import shared_census
-from pipeline.census_api import TABLES, open_census
+from pipeline.census.reader import TABLES, open_census
 from pipeline.cli import main as cli
 from pipeline.errors import QueryError
-from pipeline.query import check_read_only, format_result, run_query
+from pipeline.explore.query import check_read_only, format_result, run_query
 
 
 @pytest.fixture(scope="module")

@@ -10,10 +10,10 @@ from pathlib import Path
 import pytest
 
 from _census_fixture import shared_census
-from pipeline.census_api import open_census
+from pipeline.census.reader import open_census
 from pipeline.cli import main as cli
-from pipeline.report import build_report, render_html, render_markdown
-from pipeline.report_plots import PLOTS
+from pipeline.present.report import build_report, render_html, render_markdown
+from pipeline.present.plots import PLOTS
 
 PNG = b"\x89PNG\r\n\x1a\n"
 
@@ -109,7 +109,7 @@ def test_report_lists_keys_shared_across_families(report_dir):
 
 
 def test_determinant_histogram_handles_integers_beyond_float_range(tmp_path):
-    from pipeline import report_plots as rp
+    from pipeline.present import plots as rp
     out = rp.histogram_by_family({"two_bridge": [3, 5, 10 ** 83, 10 ** 400], "torus": [0, 1]},
                                  tmp_path / "h.png", "t", xlabel="determinant")
     assert out.read_bytes().startswith(PNG)

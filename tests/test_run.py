@@ -16,9 +16,9 @@ from pathlib import Path
 import pytest
 
 from pipeline.cli import main as cli_main
-from pipeline.run import run_census
-from pipeline.spec import load_spec
-from pipeline.store import read_table
+from pipeline.census.run import run_census
+from pipeline.census.spec import load_spec
+from pipeline.census.store import read_table
 
 SPEC = """\
 [census]
@@ -283,8 +283,8 @@ def test_chunk_timeout_marks_rows_and_run_continues(tmp_path, monkeypatch):
 
 def test_workers_do_not_import_heavy_modules():
     from joblib.externals.loky import ProcessPoolExecutor
-    from pipeline.spec import parse_spec, iter_items
-    from pipeline.worker import compute_chunk
+    from pipeline.census.spec import parse_spec, iter_items
+    from pipeline.census.worker import compute_chunk
     items = list(iter_items(parse_spec('[[family]]\nkind = "pretzel"\nlength = 3\nentries = [1, 3]\n')))
     with ProcessPoolExecutor(max_workers=1) as ex:
         res = ex.submit(compute_chunk, 0, items, {"max_modulus": 7}).result()
@@ -294,7 +294,7 @@ def test_workers_do_not_import_heavy_modules():
 
 
 def test_knots_table_counts_every_keyed_row(reference):
-    pytest.importorskip("pipeline.classify")
+    pytest.importorskip("pipeline.identify.classify")
     _, c = reference
     keyed = [r for r in c["diagrams"] if r["knot_key"] is not None]
     assert keyed and sum(k["n_diagrams"] for k in c["knots"]) == len(keyed)
@@ -305,8 +305,8 @@ def test_knots_table_counts_every_keyed_row(reference):
 
 
 def test_knots_table_built_in_small_batches_equals_one_batch(reference):
-    classify = pytest.importorskip("pipeline.classify")
-    from pipeline.knots_build import knots_rows
+    classify = pytest.importorskip("pipeline.identify.classify")
+    from pipeline.census.knots_build import knots_rows
     out, c = reference
     one = knots_rows(out, classify.build_knots_table, batch_rows=10 ** 9)
     many = knots_rows(out, classify.build_knots_table, batch_rows=3)

@@ -9,8 +9,8 @@ import sys
 import pytest
 
 from pipeline import cli
-from pipeline.invariants.coloring import coloring_matrix
-from pipeline.notation import parse
+from pipeline.invariants.coloring.spectrum.spectrum import coloring_matrix
+from pipeline.diagrams.notation import parse
 
 
 def _run(capsys, *argv):

@@ -18,7 +18,7 @@ import sympy
 from hypothesis import example, given, settings
 from hypothesis import strategies as st
 
-from pipeline.notation import parse
+from pipeline.diagrams.notation import parse
 from pipeline.invariants.signature import (
     goeritz_determinant,
     goeritz_matrix,
@@ -208,7 +208,7 @@ def test_mirror_negates_signature(notation):
 
 def test_crossingless_unlink():
     # unlink of k components: σ = 0, nullity k − 1 (common practice)
-    from pipeline.diagram import Diagram
+    from pipeline.diagrams.diagram import Diagram
     for k in (1, 2, 3):
         d = Diagram.from_pd([], free_loops=k)
         assert (signature(d), nullity(d)) == (0, k - 1)

@@ -10,8 +10,8 @@ import pytest
 
 from pipeline.cli import main as cli_main
 from pipeline.errors import SpecError
-from pipeline.notation import parse
-from pipeline.spec import (braid_components, count_items, iter_chunks, iter_items, load_spec,
+from pipeline.diagrams.notation import parse
+from pipeline.census.spec import (braid_components, count_items, iter_chunks, iter_items, load_spec,
                            parse_spec, pretzel_is_knot)
 
 

@@ -8,10 +8,10 @@ import pyarrow as pa
 import pyarrow.parquet as pq
 import pytest
 
-from pipeline.spec import iter_items, parse_spec
-from pipeline.store import CensusStore, StoreError, part_name, read_table, to_arrow
-from pipeline.worker import compute_chunk
-from schemas.tables import SCHEMAS
+from pipeline.census.spec import iter_items, parse_spec
+from pipeline.census.store import CensusStore, StoreError, part_name, read_table, to_arrow
+from pipeline.census.worker import compute_chunk
+from pipeline.census.schemas import SCHEMAS
 
 IDENTITY = {"spec_sha256": "x", "chunk_size": 2, "options": {}, "n_items": 4, "input_files": {},
             "versions": {"knotledger": "test"}}
@@ -100,7 +100,7 @@ def test_create_never_overwrites(tmp_path):
 
 def test_determinant_beyond_int64_is_exact_text_and_null_int():
     # conway:1 1 ... 1 (100 ones) is b(F_101, F_100): det = α = F_101 (Schubert; Conway 1970)
-    from pipeline.spec import WorkItem
+    from pipeline.census.spec import WorkItem
     item = WorkItem(0, "file", 0, "conway:" + " ".join(["1"] * 100), "{}", None, "x:1", False)
     row = compute_chunk(0, [item], {"max_modulus": 3})["diagrams"][0]
     a, b = 1, 1

@@ -1,6 +1,6 @@
 """Build the knots table in bounded memory.
 
-:func:`pipeline.classify.build_knots_table` needs every row of a knot key together,
+:func:`pipeline.identify.classify.build_knots_table` needs every row of a knot key together,
 and it annotates each key with the other keys that share one of its fingerprints.
 So the rows are split into *clusters*: connected components of the graph joining a
 knot key to the fingerprints of its rows (union-find over the distinct pairs, a
@@ -91,7 +91,7 @@ def knots_rows(directory: str | Path, build: Callable[[list[dict]], list[dict]],
     import pyarrow as pa
     import pyarrow.compute as pc
     import pyarrow.dataset as ds
-    from schemas.tables import DIAGRAMS
+    from .schemas import DIAGRAMS
     directory = Path(directory)
     dataset = ds.dataset(str(directory / "diagrams"), format="parquet", schema=DIAGRAMS)
     batch_of = {key: b for b, keys in enumerate(_batches(dataset, batch_rows)) for key in keys}

@@ -19,7 +19,7 @@ from dataclasses import dataclass, field
 from pathlib import Path
 from typing import Any, Optional
 
-from .errors import QueryError
+from ..errors import QueryError
 
 __all__ = ["TABLES", "Census", "open_census", "table_files", "census_path", "exact_int",
            "parse_params"]
@@ -73,7 +73,7 @@ def _read_table(directory: Path, table: str):
 
 def _mark_duplicates(diagrams) -> None:
     """Add ``duplicate_of``: the row_id of the first row with the same diagram_id (else NA),
-    the same computed column as the SQL view in :mod:`pipeline.query`."""
+    the same computed column as the SQL view in :mod:`pipeline.explore.query`."""
     if diagrams.empty or "diagram_id" not in diagrams:
         return
     import pandas as pd

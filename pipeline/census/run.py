@@ -1,13 +1,13 @@
 """``knotledger run SPEC --out DIR``: the census, chunk by chunk, resumable and sharded.
 
-The work list (:mod:`pipeline.spec`) is cut into chunks of the spec's ``chunk_size``
+The work list (:mod:`pipeline.census.spec`) is cut into chunks of the spec's ``chunk_size``
 (never derived from ``--jobs``, so every machine cuts the same chunks).  Locally the
 chunks run in worker processes of joblib's loky executor (``--jobs N``); with
 ``--scheduler ADDRESS`` they run on a dask.distributed cluster through joblib's dask
 backend.  The parent only schedules, writes parts and commits them
-(:mod:`pipeline.store`); it never computes an invariant.
+(:mod:`pipeline.census.store`); it never computes an invariant.
 
-Isolation: a diagram failure is its row's status (:mod:`pipeline.worker`); a chunk
+Isolation: a diagram failure is its row's status (:mod:`pipeline.census.worker`); a chunk
 past its ``timeout`` gives up its remaining rows inside the worker; a worker that
 does not come back ``timeout/2 + 5`` seconds after that is killed with its process,
 its chunk is committed with status ``skipped: chunk timeout`` rows, and the other
@@ -28,7 +28,7 @@ from concurrent.futures import FIRST_COMPLETED, wait
 from pathlib import Path
 from typing import Iterator, Optional
 
-from .errors import KnotLedgerError, SpecError
+from ..errors import KnotLedgerError, SpecError
 from .spec import Spec, WorkItem, count_items, iter_chunks, load_spec
 
 __all__ = ["add_arguments", "main", "run_census", "parse_shard", "versions"]
@@ -65,18 +65,18 @@ def parse_shard(text: Optional[str]) -> Optional[tuple[int, int]]:
 
 def versions() -> dict:
     """Declared versions of the code that determines stored values."""
-    from . import __version__
-    from .invariants.all import ALGORITHM_VERSIONS
-    from schemas.tables import SCHEMA_VERSION
+    from .. import __version__
+    from ..invariants.all import ALGORITHM_VERSIONS
+    from .schemas import SCHEMA_VERSION
     out = {"knotledger": __version__, "schema": SCHEMA_VERSION, "algorithms": dict(ALGORITHM_VERSIONS)}
-    from . import classify
+    from ..identify import classify
     out["classify"] = str(getattr(classify, "ALGORITHM_VERSION", "1"))
     return out
 
 
 def _source_hashes() -> dict:
     """SHA-256 (12 hex) of every pipeline module: informative, not part of the identity."""
-    root = Path(__file__).parent
+    root = Path(__file__).resolve().parents[1]
     return {str(p.relative_to(root)): hashlib.sha256(p.read_bytes()).hexdigest()[:12]
             for p in sorted(root.rglob("*.py"))}
 
@@ -221,8 +221,8 @@ def _run_dask(pending: Iterator, opts: dict, address: str, commit) -> None:
 
 def build_knots(store) -> None:
     """The knots table from the committed diagrams rows (whole census only)."""
-    from .classify import build_knots_table
-    from schemas.tables import KNOTS
+    from ..identify.classify import build_knots_table
+    from .schemas import KNOTS
     from .knots_build import knots_rows
     knots = []
     for k in knots_rows(store.dir, build_knots_table):
@@ -231,7 +231,7 @@ def build_knots(store) -> None:
         row["extras"] = json.dumps(extra, sort_keys=True, default=str) if extra else None
         knots.append(row)
     knots.sort(key=lambda r: str(r["knot_key"]))
-    store.write_knots(knots, "built by pipeline.classify.build_knots_table")
+    store.write_knots(knots, "built by pipeline.identify.classify.build_knots_table")
 
 
 def run_census(spec: Spec, out: str | Path, *, jobs: int = 1, resume: bool = False,

@@ -1,6 +1,6 @@
 """The Arrow schema of every census table: the one source of truth the writer uses.
 
-:mod:`pipeline.store` builds every Parquet part with ``pa.Table.from_pylist(rows,
+:mod:`pipeline.census.store` builds every Parquet part with ``pa.Table.from_pylist(rows,
 schema=SCHEMAS[table])`` so a column that is not declared here cannot be written, and a
 value of the wrong type is an error at write time, not a surprise at query time.
 schemas/README.md documents every column, its type and its exactness choice.

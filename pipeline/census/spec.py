@@ -51,7 +51,7 @@ from fractions import Fraction
 from pathlib import Path
 from typing import Any, Optional
 
-from .errors import SpecError
+from ..errors import SpecError
 from .worklist import (WorkItem, braid_components, count_items, iter_chunks, iter_items,
                        pretzel_is_knot)
 

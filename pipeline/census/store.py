@@ -31,9 +31,9 @@ from typing import Iterable, Optional
 import pyarrow as pa
 import pyarrow.parquet as pq
 
-from schemas.tables import SCHEMA_VERSION, SCHEMAS
+from .schemas import SCHEMA_VERSION, SCHEMAS
 
-from .errors import KnotLedgerError
+from ..errors import KnotLedgerError
 
 __all__ = ["CensusStore", "StoreError", "part_name", "read_table", "FORMAT"]
 

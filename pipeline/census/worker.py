@@ -11,7 +11,7 @@ becomes the row's ``status``; the chunk ``timeout`` (seconds) is enforced with a
 ``SIGALRM`` interval timer in the worker's main thread (between diagrams otherwise),
 after which the remaining rows carry only the cheap columns and the status
 ``skipped: chunk timeout N s``.  A worker stuck where no signal can reach it is
-killed by the parent (see :mod:`pipeline.run`).
+killed by the parent (see :mod:`pipeline.census.run`).
 """
 
 from __future__ import annotations
@@ -23,7 +23,7 @@ import threading
 import time
 from typing import Any, Optional, Sequence
 
-from .errors import KnotLedgerError
+from ..errors import KnotLedgerError
 
 __all__ = ["compute_chunk", "ChunkTimeout", "diagram_row_skeleton"]
 
@@ -67,7 +67,7 @@ def _jsonable(v: Any) -> Any:
 
 
 def _diagram_id(d) -> str:
-    from .classify import diagram_id
+    from ..identify.classify import diagram_id
     return diagram_id(d)
 
 
@@ -85,12 +85,12 @@ def diagram_row_skeleton(item, d=None) -> dict:
 
 
 def _mirror_by_convention(notation: str) -> bool:
-    """True for DT codes: they fix a knot only up to mirror image (see pipeline.dt)."""
+    """True for DT codes: they fix a knot only up to mirror image (see pipeline.diagrams.dt)."""
     return notation.strip().lower().startswith("dt:")
 
 
 def _invariants(d, opts: dict, notation: str) -> dict:
-    from .invariants.all import compute_all
+    from ..invariants.all import compute_all
     return compute_all(d, max_modulus=opts["max_modulus"], jones_budget=opts.get("jones_budget"),
                        min_colors_budget=opts.get("min_colors_budget"), notation=notation)
 
@@ -133,7 +133,7 @@ def _fill(row: dict, inv: dict) -> list[dict]:
 
 
 def _knot_key(row: dict, inv: dict, d) -> None:
-    from .classify import knot_key
+    from ..identify.classify import knot_key
     got = knot_key({**inv, **{k: v for k, v in row.items() if k not in inv}, "diagram": d})
     extra = {}
     for k, v in (got or {}).items():
@@ -149,7 +149,7 @@ def _knot_key(row: dict, inv: dict, d) -> None:
 
 
 def _one(item, opts: dict, out: dict) -> None:
-    from .notation import parse
+    from ..diagrams.notation import parse
     if item.error is not None:
         out["rejects"].append(_reject(item, item.error))
         return

@@ -284,7 +284,7 @@ def canonical_text(diagram: Diagram) -> str:
 
     Examples
     --------
-    >>> from pipeline.notation import parse
+    >>> from pipeline.diagrams.notation import parse
     >>> canonical_text(parse("pretzel:3,5,7")) == canonical_text(parse("pretzel:5,7,3"))
     True
     """

@@ -30,7 +30,7 @@ from dataclasses import dataclass, field
 from functools import cached_property
 from typing import Iterable, Sequence
 
-from .errors import DiagramError
+from ..errors import DiagramError
 
 __all__ = ["Diagram", "Slot"]
 
@@ -43,10 +43,10 @@ class Diagram:
     """An oriented link diagram: a validated PD code plus a number of free loops.
 
     Build one with :meth:`from_pd` (validates) or from a notation string with
-    :func:`pipeline.notation.parse`.  Instances are immutable; every derived
+    :func:`pipeline.diagrams.notation.parse`.  Instances are immutable; every derived
     property is computed once on first use.  Equality and hashing are by the PD
     tuple and the loop count as given (relabelled copies are different objects;
-    see :mod:`pipeline.classify` for the relabelling-invariant ``diagram_id``).
+    see :mod:`pipeline.identify.classify` for the relabelling-invariant ``diagram_id``).
 
     Attributes
     ----------
@@ -331,7 +331,7 @@ class Diagram:
         An arc starts at the outgoing under-strand ``c`` of a crossing and ends at the
         incoming under-strand ``a`` of the next; a component that never passes under
         is one arc.  Arcs are numbered by their first label, so arc numbers are
-        stable and match the columns of :func:`pipeline.invariants.coloring.coloring_matrix`.
+        stable and match the columns of :func:`pipeline.invariants.coloring.spectrum.coloring_matrix`.
         """
         def make():
             ends = {x[0] for x in self.pd}  # labels that end an arc

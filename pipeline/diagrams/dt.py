@@ -30,7 +30,7 @@ from __future__ import annotations
 from typing import Sequence
 
 from .diagram import Diagram
-from .errors import NotationError
+from ..errors import NotationError
 
 __all__ = ["diagram", "MAX_DT_CROSSINGS", "MIRROR_BY_CONVENTION"]
 

@@ -23,7 +23,7 @@ from fractions import Fraction
 from typing import Callable
 
 from .diagram import Diagram
-from .errors import DiagramError, NotationError
+from ..errors import DiagramError, NotationError
 
 __all__ = ["parse", "format_pd", "KINDS", "split_notation"]
 

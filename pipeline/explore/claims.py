@@ -1,7 +1,7 @@
 """``knotledger check DIR --claim EXPR``: test a conjectured formula on every census row.
 
 The claim and the optional ``--where`` filter are written in the safe expression
-language of :mod:`pipeline.safe_expr` (Python-like syntax parsed with :mod:`ast`,
+language of :mod:`pipeline.explore.safe_expr` (Python-like syntax parsed with :mod:`ast`,
 checked against a whitelist before any data is read, never passed to eval/exec).
 Names are the family parameters from the ``params`` column (``p``, ``q``, ``p1``…,
 ``alpha``, ``beta``, ``t1``…; a parameter shadows a column of the same name) and the
@@ -33,8 +33,8 @@ from fractions import Fraction
 from pathlib import Path
 from typing import Any, Optional
 
-from .census_api import Census, exact_int, open_census, parse_params
-from .errors import ClaimError
+from ..census.reader import Census, exact_int, open_census, parse_params
+from ..errors import ClaimError
 from .safe_expr import Expression, Null, compile_expression
 
 __all__ = ["ClaimResult", "RowEnv", "census_rows", "check_claim", "format_result", "language_help",
@@ -108,7 +108,7 @@ def _column(df, name: str) -> list:
 
 
 class RowEnv:
-    """The values one expression sees for one row (see :mod:`pipeline.safe_expr`)."""
+    """The values one expression sees for one row (see :mod:`pipeline.explore.safe_expr`)."""
 
     __slots__ = ("values", "colorings", "polys")
 

@@ -21,7 +21,7 @@ printed with its support and the failing rows (a robust refit ignores the failin
 points once or twice).
 
 The target is a column of ``diagrams`` or any expression of the safe language of
-:mod:`pipeline.safe_expr` (e.g. ``abs(signature)``); ``--where`` filters rows likewise.
+:mod:`pipeline.explore.safe_expr` (e.g. ``abs(signature)``); ``--where`` filters rows likewise.
 """
 
 from __future__ import annotations
@@ -36,9 +36,9 @@ from math import lcm
 from pathlib import Path
 from typing import Any, Optional, Sequence
 
-from .census_api import Census, open_census
+from ..census.reader import Census, open_census
 from .claims import census_rows
-from .errors import ClaimError, QueryError
+from ..errors import ClaimError, QueryError
 from .safe_expr import Null, compile_expression
 
 __all__ = ["PolynomialFit", "ClassFit", "fit_polynomial", "fit_family", "add_arguments", "main"]

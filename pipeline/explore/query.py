@@ -31,8 +31,8 @@ from decimal import Decimal
 from pathlib import Path
 from typing import Any, Sequence
 
-from .census_api import TABLES, census_path, table_files
-from .errors import QueryError
+from ..census.reader import TABLES, census_path, table_files
+from ..errors import QueryError
 
 __all__ = ["FORMATS", "check_read_only", "connect", "run_query", "format_result",
            "add_arguments", "main"]

@@ -33,7 +33,7 @@ import ast
 from fractions import Fraction
 from typing import Any, Callable, Iterable
 
-from .errors import ClaimError
+from ..errors import ClaimError
 from .safe_functions import FUNCTIONS, ROW_FUNCTIONS, Null
 from .safe_functions import as_number as _num
 from .safe_functions import normalise as _norm

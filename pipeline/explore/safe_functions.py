@@ -1,4 +1,4 @@
-"""The whitelisted functions of the safe expression language (:mod:`pipeline.safe_expr`).
+"""The whitelisted functions of the safe expression language (:mod:`pipeline.explore.safe_expr`).
 
 Each function takes exact values (int, :class:`fractions.Fraction`, bool, str, tuples)
 and returns exact values; a type error raises :class:`ClaimError`, an undefined value
@@ -12,7 +12,7 @@ from fractions import Fraction
 from math import gcd, isqrt, lcm, prod
 from typing import Any, Callable
 
-from .errors import ClaimError
+from ..errors import ClaimError
 
 __all__ = ["Null", "FUNCTIONS", "ROW_FUNCTIONS", "as_number", "as_integer", "normalise"]
 

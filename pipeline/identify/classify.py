@@ -4,12 +4,12 @@ A census row gets a **knot key** naming its unoriented link type:
 
 * from a **normal form** when its notation (or family parameters) is a torus,
   two-bridge, conway, pretzel or Montesinos presentation, or a braid word of the
-  torus form (σ1⋯σ_{p−1})^q — see :mod:`pipeline.normal_forms` for the theorems; the
+  torus form (σ1⋯σ_{p−1})^q — see :mod:`pipeline.identify.normal_forms` for the theorems; the
   key then comes with ``proof = 'normal form'``, its mirror's key and a chirality
   verdict from the same theorem;
 * otherwise from a **fingerprint** of its invariants (``proof = 'fingerprint only'``).
 
-Fingerprints (:mod:`pipeline.fingerprint`)
+Fingerprints (:mod:`pipeline.identify.fingerprint`)
 ------------------------------------------
 Knots: determinant, invariant factors, Alexander, Jones, signature; links: only
 orientation-free data (determinant, invariant factors, components, the set of Jones
@@ -37,9 +37,9 @@ import re
 from fractions import Fraction
 from typing import Any, Optional
 
-from .canonical import canonical_text, diagram_id
-from .diagram import Diagram
-from .errors import KnotLedgerError
+from ..diagrams.canonical import canonical_text, diagram_id
+from ..diagrams.diagram import Diagram
+from ..errors import KnotLedgerError
 from .fingerprint import (_factors, _invert, _poly, fingerprint, jones_orientation_set,
                           mirror_fingerprint)
 from .normal_forms import (CN_ALT, NormalForm, montesinos_nf, pretzel_nf, torus_nf, two_bridge_nf)
@@ -58,8 +58,8 @@ def _ints(text: str) -> list[int]:
 
 def normal_form(row: dict) -> Optional[NormalForm]:
     """The normal form of a row from its notation (or family parameters); None if none applies."""
-    from .notation import split_notation
-    from .families.two_bridge import fraction_of
+    from ..diagrams.notation import split_notation
+    from ..diagrams.families.two_bridge import fraction_of
     notation = row.get("notation")
     try:
         if notation:
@@ -338,7 +338,7 @@ def build_knots_table(rows: list[dict]) -> list[dict]:
         same_diagram = sorted({k for d in row.pop("_dids") for k in keys_of_did[d]
                                if k != row["knot_key"] and proofs.get(k) == "normal form"})
         if row["proof"] != "normal form" and same_diagram:
-            # an identical diagram (equal diagram_id, see pipeline.canonical) is an isotopy
+            # an identical diagram (equal diagram_id, see pipeline.diagrams.canonical) is an isotopy
             row["distinctness_note"] = ("the same type as " + ", ".join(same_diagram) +
                                         ": an identical diagram (same diagram_id) has that key")
     return out

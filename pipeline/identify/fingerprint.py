@@ -23,8 +23,8 @@ import json
 from itertools import combinations
 from typing import Any, Optional
 
-from .diagram import Diagram
-from .poly import Laurent
+from ..diagrams.diagram import Diagram
+from ..invariants.poly import Laurent
 
 __all__ = ["fingerprint", "mirror_fingerprint", "jones_orientation_set", "MAX_ORIENTATION_COMPONENTS"]
 

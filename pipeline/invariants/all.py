@@ -11,7 +11,7 @@ import time
 from math import isqrt
 from typing import Any, Callable, Optional
 
-from ..diagram import Diagram
+from ..diagrams.diagram import Diagram
 from ..errors import BudgetExceeded
 
 __all__ = ["compute_all", "ALGORITHM_VERSIONS"]
@@ -49,7 +49,7 @@ def compute_all(diagram: Diagram, *, max_modulus: int = 16, jones_budget: Option
     ``notation``, when given, must be the string ``diagram`` was parsed from; for the
     tangle families (``conway``, ``rational``, ``pretzel``, ``montesinos``) the Jones
     polynomial is then taken from the linear-time bracket of rational tangles
-    (:mod:`pipeline.invariants.bracket_fast`), which the tests cross-check against
+    (:mod:`pipeline.invariants.jones.tangle_bracket`), which the tests cross-check against
     the general frontier programme.
 
     Keys: ``crossings``, ``components``, ``free_loops``, ``writhe``, ``alternating``,
@@ -60,7 +60,10 @@ def compute_all(diagram: Diagram, *, max_modulus: int = 16, jones_budget: Option
     ``checks`` ({name: bool}), ``checks_failed`` (list of names), ``status``,
     ``timings`` (seconds per invariant).
     """
-    from . import alexander, bounds, checks, chirality, coloring, jones, signature
+    from . import bounds, checks, chirality, signature
+    from .alexander import fox as alexander
+    from .coloring import spectrum as coloring
+    from .jones import frontier as jones
 
     problems: list[str] = []
     timings: dict[str, float] = {}
@@ -117,7 +120,7 @@ def compute_all(diagram: Diagram, *, max_modulus: int = 16, jones_budget: Option
 def _jones(jones, diagram: Diagram, notation: Optional[str], budget: Optional[int]):
     """Jones by the tangle route when the notation allows it, else the frontier programme."""
     if notation is not None and budget != 0:
-        from .bracket_fast import bracket_of_notation
+        from .jones.tangle_bracket import bracket_of_notation
         bracket = bracket_of_notation(notation)
         if bracket is not None:
             return jones.jones_from_bracket(bracket, diagram.writhe)

@@ -41,8 +41,8 @@ from __future__ import annotations
 from math import ceil, isqrt
 from typing import Any, Optional, Sequence
 
-from ..diagram import Diagram
-from ..poly import Laurent
+from ..diagrams.diagram import Diagram
+from .poly import Laurent
 
 __all__ = [
     "nugatory_crossings",
@@ -100,7 +100,7 @@ def crossing_number_bound(diagram: Diagram) -> tuple[int, bool]:
 
     Examples
     --------
-    >>> from pipeline.notation import parse
+    >>> from pipeline.diagrams.notation import parse
     >>> crossing_number_bound(parse("conway:2 2")), crossing_number_bound(parse("braid:1"))
     ((4, True), (0, False))
     """
@@ -132,7 +132,7 @@ def linking_numbers(diagram: Diagram) -> dict[tuple[int, int], int]:
 
     Examples
     --------
-    >>> from pipeline.notation import parse
+    >>> from pipeline.diagrams.notation import parse
     >>> linking_numbers(parse("torus:2,4"))
     {(0, 1): 2}
     """

@@ -77,8 +77,8 @@ from typing import Any, Optional
 
 from flint import fmpz_poly
 
-from ..diagram import Diagram
-from ..poly import Laurent
+from ..diagrams.diagram import Diagram
+from .poly import Laurent
 from . import bounds
 
 __all__ = ["run_checks", "evaluate_at_root", "CHECK_NAMES"]
@@ -179,8 +179,8 @@ def run_checks(diagram: Diagram, values: dict[str, Any]) -> dict[str, bool]:
 
     Examples
     --------
-    >>> from pipeline.notation import parse
-    >>> from pipeline.poly import Laurent
+    >>> from pipeline.diagrams.notation import parse
+    >>> from pipeline.invariants.poly import Laurent
     >>> v = Laurent.from_exponents([(1, 1), (3, 1), (4, -1)])
     >>> run_checks(parse("torus:2,3"), {"jones": v, "determinant": 3})["jones_det"]
     True

@@ -33,8 +33,8 @@ from __future__ import annotations
 from itertools import combinations
 from typing import Any, Iterable, Optional
 
-from ..diagram import Diagram
-from ..poly import Laurent
+from ..diagrams.diagram import Diagram
+from .poly import Laurent
 
 __all__ = ["chirality", "reverse_components", "orientation_values"]
 
@@ -63,7 +63,7 @@ def reverse_components(diagram: Diagram, which: Iterable[int]) -> Diagram:
 
     Examples
     --------
-    >>> from pipeline.notation import parse
+    >>> from pipeline.diagrams.notation import parse
     >>> reverse_components(parse("torus:2,2"), [1]).signs
     (-1, -1)
     """
@@ -144,7 +144,7 @@ def chirality(diagram: Diagram, values: dict[str, Any]) -> tuple[str, str]:
 
     Examples
     --------
-    >>> from pipeline.notation import parse
+    >>> from pipeline.diagrams.notation import parse
     >>> chirality(parse("torus:2,3"), {"jones": None, "signature": -2})[0]
     'chiral (signature)'
     """

@@ -4,7 +4,7 @@ Method (Gordon–Litherland [1]_).  Colour the faces of each connected piece of 
 diagram in checkerboard fashion, black and white.  The black faces, joined by a
 half-twisted band at every crossing, form a spanning surface F (usually not
 orientable).  At a crossing call the four corners by the slot convention of
-:mod:`pipeline.diagram`: corner ``s`` lies between slots ``s-1`` and ``s`` (it is the
+:mod:`pipeline.diagrams.diagram`: corner ``s`` lies between slots ``s-1`` and ``s`` (it is the
 corner recorded as ``(crossing, s)`` in ``Diagram.faces``).  Opposite corners have
 the same colour.
 
@@ -60,7 +60,7 @@ from functools import lru_cache
 
 from flint import fmpq
 
-from ..diagram import Diagram
+from ..diagrams.diagram import Diagram
 
 __all__ = [
     "signature",
@@ -269,7 +269,7 @@ def goeritz_matrix(diagram: Diagram) -> list[list[int]]:
 
     Examples
     --------
-    >>> from pipeline.notation import parse
+    >>> from pipeline.diagrams.notation import parse
     >>> goeritz_matrix(parse("torus:2,3"))
     [[3]]
     """
@@ -328,7 +328,7 @@ def signature(diagram: Diagram) -> int:
 
     Examples
     --------
-    >>> from pipeline.notation import parse
+    >>> from pipeline.diagrams.notation import parse
     >>> signature(parse("torus:2,3")), signature(parse("torus:3,4"))
     (-2, -6)
 

@@ -6,7 +6,7 @@ Sections: overview; determinant distribution per family; which primes colour whi
 fraction of each family; fewest-colours statistics per prime; knot-collapse counts
 (diagrams versus knot types, per family and across families); chirality verdicts;
 certification failures (``checks_failed``); timings (from the manifest); rejects; and
-pictures of a few diagrams when :mod:`pipeline.draw` is available
+pictures of a few diagrams when :mod:`pipeline.present.draw` is available
 (:func:`diagram_pictures`, the hook for the drawing code).
 
 The report is built as a small list of blocks (heading, paragraph, table, image) and
@@ -24,9 +24,9 @@ from collections import Counter, defaultdict
 from pathlib import Path
 from typing import Any
 
-from . import report_plots as rp
-from .census_api import Census, exact_int, open_census
-from .errors import QueryError
+from . import plots as rp
+from ..census.reader import Census, exact_int, open_census
+from ..errors import QueryError
 
 __all__ = ["build_report", "diagram_pictures", "render_markdown", "render_html", "add_arguments", "main"]
 
@@ -34,7 +34,7 @@ MAX_LISTED = 20
 
 
 def _plain(v: Any) -> Any:
-    from .claims import _plain as plain
+    from ..explore.claims import _plain as plain
     return plain(v)
 
 
@@ -267,12 +267,12 @@ def diagram_pictures(census: Census, plots: Path, *, classes: int = 2) -> list[t
     """Pictures of representative knots: for every family, the smallest-crossing knot of
     each of its ``classes`` smallest determinant classes (det ≥ 3; ties by row_id).
 
-    Each is drawn by :func:`pipeline.draw.draw_diagram` with a witness p-colouring, p the
+    Each is drawn by :func:`pipeline.present.draw.draw_diagram` with a witness p-colouring, p the
     smallest prime dividing the determinant; returns ``(caption, file name)`` pairs for
     the pictures actually written (``[]`` for an empty census).
     """
     from .draw import draw_diagram
-    from .notation import parse
+    from ..diagrams.notation import parse
     d = census.diagrams
     if not len(d):
         return []

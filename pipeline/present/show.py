@@ -25,9 +25,9 @@ from fractions import Fraction
 from math import isqrt
 from typing import Any
 
-from .diagram import Diagram
-from .invariants import coloring
-from .notation import parse
+from ..diagrams.diagram import Diagram
+from ..invariants.coloring import spectrum as coloring
+from ..diagrams.notation import parse
 
 __all__ = ["add_arguments", "main", "collect", "render_page", "to_json_object"]
 
@@ -70,7 +70,7 @@ def collect(diagram: Diagram, *, max_modulus: int = 16, extra_primes: tuple[int,
             notation: str | None = None) -> dict:
     """The census row of ``diagram`` (:func:`~pipeline.invariants.all.compute_all`, exactly
     what a census stores), plus witnesses and fewest colours for ``extra_primes``."""
-    from .invariants.all import compute_all
+    from ..invariants.all import compute_all
     row = dict(compute_all(diagram, max_modulus=max_modulus, notation=notation))
     if notation is not None:
         _add_knot_type(row, diagram, notation)
@@ -106,7 +106,7 @@ def _jsonable(value: Any) -> Any:
 def _add_knot_type(row: dict, diagram: Diagram, notation: str) -> None:
     """The knot key a census would give this diagram typed into a file family, and the
     normal-form chirality verdict when a classification theorem decides it."""
-    from .classify import knot_key
+    from ..identify.classify import knot_key
     try:
         got = knot_key({**row, "family": "file", "params": {}, "notation": notation, "diagram": diagram})
     except Exception as err:  # the page must still show every other invariant

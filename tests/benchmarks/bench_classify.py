@@ -1,11 +1,11 @@
 """Benchmark of diagram identity (canonical form) and knot keys.
 
-Times :func:`pipeline.canonical.canonical_text` on torus knots T(3,q), T(2,q),
+Times :func:`pipeline.diagrams.canonical.canonical_text` on torus knots T(3,q), T(2,q),
 pretzel links P(a,a,a,a), two-bridge chains conway:2 2 ... 2 and asymmetric
 Montesinos knots, up to about 1000 crossings, and fits the growth exponent k of
 time ≈ C·n^k (least squares on log-log).  Side by side in the same run: the same
 canonical form with the automorphism pruning switched off (identical output,
-checked), as ratios.  Also times :func:`pipeline.classify.knot_key` on normal-form
+checked), as ratios.  Also times :func:`pipeline.identify.classify.knot_key` on normal-form
 rows (no invariants needed).
 
 Usage::
@@ -21,9 +21,9 @@ import platform
 import sys
 import time
 
-from pipeline.canonical import canonical_pd, canonical_text
-from pipeline.classify import knot_key
-from pipeline.notation import parse
+from pipeline.diagrams.canonical import canonical_pd, canonical_text
+from pipeline.identify.classify import knot_key
+from pipeline.diagrams.notation import parse
 from _bench import fit_exponent as slope
 
 FAMILIES = {

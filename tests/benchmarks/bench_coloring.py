@@ -31,7 +31,7 @@ ROOT = Path(__file__).resolve().parents[2]
 sys.path.insert(0, str(ROOT))
 
 from pipeline.invariants import coloring  # noqa: E402
-from pipeline.notation import parse  # noqa: E402
+from pipeline.diagrams.notation import parse  # noqa: E402
 
 SIZES = (100, 200, 400, 800, 1600)
 SYMPY_SIZE = 60

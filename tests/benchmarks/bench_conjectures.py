@@ -70,10 +70,10 @@ def main() -> None:
     parser.add_argument("--rows", type=int, default=100_000)
     parser.add_argument("--out", default="reports/bench_conjectures.md")
     args = parser.parse_args()
-    from pipeline.census_api import open_census
-    from pipeline.claims import check_claim
-    from pipeline.fit import fit_family
-    from pipeline.query import run_query
+    from pipeline.census.reader import open_census
+    from pipeline.explore.claims import check_claim
+    from pipeline.explore.fit import fit_family
+    from pipeline.explore.query import run_query
 
     with tempfile.TemporaryDirectory() as tmp:
         census_dir = Path(tmp) / "c"

@@ -17,8 +17,8 @@ from pathlib import Path
 sys.path.insert(0, str(Path(__file__).resolve().parents[2]))
 
 from pipeline import parse  # noqa: E402
-from pipeline.draw import draw_diagram, layout  # noqa: E402
-from pipeline.draw.geometry import _piece_positions  # noqa: E402
+from pipeline.present.draw import draw_diagram, layout  # noqa: E402
+from pipeline.present.draw.geometry import _piece_positions  # noqa: E402
 from _bench import best_time as _time
 
 SIZES = [10, 40, 100, 400]

@@ -24,9 +24,9 @@ import flint
 
 from fractions import Fraction
 
-from pipeline.invariants.bracket_fast import montesinos_bracket, two_bridge_bracket
-from pipeline.invariants.jones import frontier_width, jones_from_bracket, jones_polynomial
-from pipeline.notation import parse
+from pipeline.invariants.jones.frontier.tangle_bracket import montesinos_bracket, two_bridge_bracket
+from pipeline.invariants.jones.frontier.frontier import frontier_width, jones_from_bracket, jones_polynomial
+from pipeline.diagrams.notation import parse
 
 sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), ".."))
 from slow_routes import state_sum_jones  # noqa: E402  (the tests' 2^n reference route)

@@ -28,7 +28,7 @@ from fractions import Fraction
 import flint
 
 from pipeline.invariants import signature as sigmod
-from pipeline.notation import parse
+from pipeline.diagrams.notation import parse
 from _bench import fit_exponent, short
 
 FAMILIES = {

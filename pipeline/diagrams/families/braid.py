@@ -19,7 +19,7 @@ from typing import Optional, Sequence
 
 from ..builder import PlanarBuilder
 from ..diagram import Diagram
-from ..errors import NotationError
+from ...errors import NotationError
 
 __all__ = ["diagram"]
 

@@ -24,7 +24,7 @@ from typing import Sequence
 
 from ..builder import PlanarBuilder, numerator_closure, rational_tangle, tangle_sum
 from ..diagram import Diagram
-from ..errors import NotationError
+from ...errors import NotationError
 from .two_bridge import continued_fraction
 
 __all__ = ["diagram", "PICTURE"]

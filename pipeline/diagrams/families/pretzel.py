@@ -19,7 +19,7 @@ from fractions import Fraction
 from typing import Sequence
 
 from ..diagram import Diagram
-from ..errors import NotationError
+from ...errors import NotationError
 from . import montesinos
 
 __all__ = ["diagram"]

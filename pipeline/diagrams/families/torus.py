@@ -13,7 +13,7 @@ References
 from __future__ import annotations
 
 from ..diagram import Diagram
-from ..errors import NotationError
+from ...errors import NotationError
 from . import braid
 
 __all__ = ["diagram", "word"]

@@ -22,7 +22,7 @@ from typing import Sequence
 
 from ..builder import PlanarBuilder, numerator_closure, rational_tangle
 from ..diagram import Diagram
-from ..errors import NotationError
+from ...errors import NotationError
 
 __all__ = ["continued_fraction", "fraction_of", "diagram", "conway_diagram"]
 

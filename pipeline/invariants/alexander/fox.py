@@ -9,7 +9,7 @@ Method
 ------
 1. Up to a unit ±t^k, Δ is a minor of the Alexander matrix of the Wirtinger
    presentation (Fox calculus), computed exactly over Z[t] by
-   :mod:`pipeline.invariants.alexander_matrix`.
+   :mod:`pipeline.invariants.alexander.matrix`.
 2. The power of t is fixed by symmetry (Conway's normal form is symmetric about 0).
 3. The sign: for a knot Δ(1) = 1.  For a link the lowest coefficient of ∇ (at
    z^(μ−1)) is the cofactor of the linking-number Laplacian (Hosokawa 1958, Hoste 1985);
@@ -40,10 +40,10 @@ from functools import lru_cache
 
 from flint import fmpz_mat, fmpz_poly
 
-from ..diagram import Diagram
-from ..errors import KnotLedgerError
+from ...diagrams.diagram import Diagram
+from ...errors import KnotLedgerError
 from ..poly import Laurent
-from .alexander_matrix import alexander_minor_det
+from .matrix import alexander_minor_det
 
 __all__ = ["alexander_polynomial", "conway_polynomial", "conway_from_alexander",
            "smoothing", "crossing_change"]
@@ -80,7 +80,7 @@ def alexander_polynomial(diagram: Diagram) -> Laurent:
 
     Examples
     --------
-    >>> from pipeline.notation import parse
+    >>> from pipeline.diagrams.notation import parse
     >>> alexander_polynomial(parse("torus:2,3")).to_text()
     't^(-1) - 1 + t'
     """
@@ -96,7 +96,7 @@ def conway_polynomial(diagram: Diagram) -> Laurent:
 
     Examples
     --------
-    >>> from pipeline.notation import parse
+    >>> from pipeline.diagrams.notation import parse
     >>> conway_polynomial(parse("torus:2,4")).to_text("z")
     '2z + z^3'
     >>> conway_polynomial(parse("conway:2 2")).to_text("z")

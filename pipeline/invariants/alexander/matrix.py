@@ -35,7 +35,7 @@ import heapq
 
 from flint import fmpz_poly
 
-from ..diagram import Diagram
+from ...diagrams.diagram import Diagram
 
 __all__ = ["alexander_rows", "det_up_to_units", "alexander_minor_det"]
 

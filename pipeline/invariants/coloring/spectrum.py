@@ -37,7 +37,7 @@ from functools import lru_cache
 from math import gcd, isqrt, lcm, prod
 from typing import Optional
 
-from ..diagram import Diagram
+from ...diagrams.diagram import Diagram
 from .sparse_elimination import diagonalise, eliminate, eliminate_units, smith_of_diagonal
 
 __all__ = [
@@ -76,7 +76,7 @@ def coloring_matrix(diagram: Diagram) -> list[list[int]]:
 
     Examples
     --------
-    >>> from pipeline.notation import parse
+    >>> from pipeline.diagrams.notation import parse
     >>> coloring_matrix(parse("braid:1,1"))   # Hopf link
     [[2, -2], [-2, 2]]
     """
@@ -223,7 +223,7 @@ def determinant(diagram: Diagram) -> int:
 
     Examples
     --------
-    >>> from pipeline.notation import parse
+    >>> from pipeline.diagrams.notation import parse
     >>> determinant(parse("conway:2 2"))    # figure-eight
     5
     """

@@ -33,7 +33,7 @@ bounded by 4·(crossings + loops) + 4, so no flint call is ever unbounded; the
 ``budget`` bounds the number of matchings kept at once.
 
 Diagrams built from rational tangles (two-bridge, pretzel, Montesinos) also have
-a linear-time route by bracket pairs, :mod:`pipeline.invariants.bracket_fast`;
+a linear-time route by bracket pairs, :mod:`pipeline.invariants.jones.tangle_bracket`;
 :func:`jones_from_bracket` turns its bracket into V.  The tests check the two
 routes against each other and against the 2^n state sum.
 
@@ -52,8 +52,8 @@ from typing import Optional
 
 import flint
 
-from ..diagram import Diagram
-from ..errors import BudgetExceeded
+from ...diagrams.diagram import Diagram
+from ...errors import BudgetExceeded
 from ..poly import Laurent
 
 __all__ = ["kauffman_bracket", "jones_polynomial", "jones_from_bracket", "crossing_order", "frontier_width"]
@@ -324,7 +324,7 @@ def kauffman_bracket(diagram: Diagram, *, budget: Optional[int] = None) -> Laure
 
     Examples
     --------
-    >>> from pipeline.notation import parse
+    >>> from pipeline.diagrams.notation import parse
     >>> kauffman_bracket(parse("torus:2,3")).to_text("A")
     'A^(-7) - A^(-3) - A^5'
 
@@ -365,7 +365,7 @@ def jones_polynomial(diagram: Diagram, *, budget: Optional[int] = None) -> Laure
 
     Examples
     --------
-    >>> from pipeline.notation import parse
+    >>> from pipeline.diagrams.notation import parse
     >>> jones_polynomial(parse("torus:2,3")).to_text()
     't + t^3 - t^4'
 
@@ -381,7 +381,7 @@ def jones_polynomial(diagram: Diagram, *, budget: Optional[int] = None) -> Laure
 def jones_from_bracket(bracket: Laurent, writhe: int) -> Laurent:
     """``V = (−A³)^(−w) <D>`` at ``A = t^(−1/4)``, from a bracket in A (doubled exponents).
 
-    Lets a fast bracket route (:mod:`pipeline.invariants.bracket_fast`) reuse the
+    Lets a fast bracket route (:mod:`pipeline.invariants.jones.tangle_bracket`) reuse the
     normalisation of :func:`jones_polynomial`.
 
     Raises

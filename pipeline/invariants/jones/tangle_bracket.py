@@ -12,11 +12,11 @@ act on the pairs by
 
 with ``δ = −A² − A⁻²`` and ``<unknot> = 1``.  A single crossing is ``(A, A⁻¹)`` when
 its A-smoothing is ``[0]`` and ``(A⁻¹, A)`` otherwise.  The functions below repeat
-exactly the construction of :mod:`pipeline.builder` (same twists, same order, same
+exactly the construction of :mod:`pipeline.diagrams.builder` (same twists, same order, same
 crossing picture), so they return the bracket of the very diagram that
 ``parse("rational:...")``, ``parse("conway:...")``, ``parse("pretzel:...")`` or
 ``parse("montesinos:...")`` builds; the Jones polynomial then needs only that
-diagram's writhe (:func:`pipeline.invariants.jones.jones_from_bracket`).  The tests
+diagram's writhe (:func:`pipeline.invariants.jones.frontier.jones_from_bracket`).  The tests
 check every route against the general frontier programme.
 
 Polynomials are ``(offset, fmpz_poly)`` pairs meaning ``A^offset · p(A)``; degrees
@@ -37,10 +37,10 @@ import flint
 
 import re
 
-from ..errors import NotationError
-from ..families import montesinos as _montesinos
-from ..families import two_bridge as _two_bridge
-from ..notation import _fraction, _ints, split_notation
+from ...errors import NotationError
+from ...diagrams.families import montesinos as _montesinos
+from ...diagrams.families import two_bridge as _two_bridge
+from ...diagrams.notation import _fraction, _ints, split_notation
 from ..poly import Laurent
 
 __all__ = ["rational_tangle_bracket", "two_bridge_bracket", "montesinos_bracket", "bracket_of_notation"]
@@ -164,10 +164,10 @@ def montesinos_bracket(fractions: Sequence[Optional[Fraction]]) -> Laurent:
 def bracket_of_notation(text: str) -> Optional[Laurent]:
     """The bracket of the diagram ``parse(text)`` builds, by the tangle route, for the
     kinds ``conway``, ``rational``, ``pretzel`` and ``montesinos``; None for any other
-    kind (use :func:`pipeline.invariants.jones.kauffman_bracket` then).
+    kind (use :func:`pipeline.invariants.jones.frontier.kauffman_bracket` then).
 
     Call it after ``parse(text)`` has succeeded: the arguments are read with the
-    same helpers as :mod:`pipeline.notation`, and the Jones polynomial is
+    same helpers as :mod:`pipeline.diagrams.notation`, and the Jones polynomial is
     ``jones_from_bracket(bracket_of_notation(text), parse(text).writhe)``.
 
     Raises

@@ -3,9 +3,9 @@
 ``knotledger draw DIAGRAM --out FILE.svg|FILE.png [--coloring P] [--no-labels]
 [--arrows] [--signs]``
 
-The layout is computed from the PD code alone (:mod:`pipeline.draw.geometry`, Tutte's
+The layout is computed from the PD code alone (:mod:`pipeline.present.draw.geometry`, Tutte's
 barycentric embedding of the diagram's own rotation system), so every notation, link and
-split diagram is drawn the same way; :mod:`pipeline.draw.render` paints it with
+split diagram is drawn the same way; :mod:`pipeline.present.draw.render` paints it with
 matplotlib.  Arc ``a k`` is column k of the colouring matrix (``diagram.arcs[k-1]``) and
 crossing ``x i`` is row i (the i-th PD tuple), exactly as ``knotledger show`` prints them.
 """
@@ -38,7 +38,7 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
 
 def main(args: argparse.Namespace) -> int:
     """Run ``knotledger draw``; returns the exit code (errors are raised as KnotLedgerError)."""
-    from ..notation import parse
+    from ...diagrams.notation import parse
 
     diagram = parse(args.diagram)
     draw_diagram(diagram, args.out, coloring=args.coloring, labels=args.labels,

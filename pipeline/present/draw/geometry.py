@@ -44,7 +44,7 @@ from __future__ import annotations
 import math
 from typing import Any
 
-from ..diagram import Diagram, Slot
+from ...diagrams.diagram import Diagram, Slot
 
 __all__ = ["layout", "stray_intersections"]
 

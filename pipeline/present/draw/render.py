@@ -1,4 +1,4 @@
-"""Render a diagram picture (SVG or PNG) from :func:`pipeline.draw.geometry.layout`.
+"""Render a diagram picture (SVG or PNG) from :func:`pipeline.present.draw.geometry.layout`.
 
 Labels are the colouring-matrix labels of ``knotledger show``: arc ``a k`` is
 ``diagram.arcs[k-1]`` (column k), free loops are the columns after the arcs, and crossing
@@ -21,8 +21,8 @@ import os
 from pathlib import Path
 from typing import Optional
 
-from ..diagram import Diagram
-from ..errors import KnotLedgerError
+from ...diagrams.diagram import Diagram
+from ...errors import KnotLedgerError
 from .geometry import layout as _layout
 
 __all__ = ["draw_diagram", "witness_for_picture", "residue_palette"]
@@ -64,7 +64,7 @@ def _prime_factors(n: int) -> list[int]:
 def witness_for_picture(diagram: Diagram, p: int) -> tuple[int, ...]:
     """A non-constant Fox p-colouring, one colour per colouring-matrix column.
 
-    For a prime p this is :func:`pipeline.invariants.coloring.witness_coloring`; for a
+    For a prime p this is :func:`pipeline.invariants.coloring.spectrum.witness_coloring`; for a
     composite p a witness q-colouring for a prime q | p, multiplied by p/q, is a
     non-constant p-colouring (one exists iff gcd(p, det) ≠ 1, i.e. iff such a q exists).
 
@@ -73,7 +73,7 @@ def witness_for_picture(diagram: Diagram, p: int) -> tuple[int, ...]:
     KnotLedgerError
         If p < 2 or the diagram has no non-constant p-colouring.
     """
-    from ..invariants.coloring import determinant, witness_coloring
+    from ...invariants.coloring.spectrum import determinant, witness_coloring
 
     if isinstance(p, bool) or not isinstance(p, int) or p < 2:
         raise KnotLedgerError(f"coloring: modulus {p!r} must be an integer >= 2")
