@@ -9,7 +9,7 @@ import pytest
 from pipeline.diagrams.notation import parse
 from pipeline.invariants.bounds import linking_numbers
 from pipeline.invariants.chirality import chirality, orientation_values, reverse_components
-from pipeline.invariants.jones.frontier.frontier import jones_polynomial
+from pipeline.invariants.jones.frontier import jones_polynomial
 from pipeline.invariants.signature import signature
 
 VERDICTS = {"chiral (jones)", "chiral (signature)", "unknown"}

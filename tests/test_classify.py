@@ -14,10 +14,10 @@ import pytest
 from pipeline.identify.classify import (KeyConflictError, build_knots_table, fingerprint, jones_orientation_set,
                                is_reduced, knot_key, mark_duplicates, normal_form)
 from pipeline.diagrams.diagram import Diagram
-from pipeline.invariants.alexander.fox.fox import alexander_polynomial
-from pipeline.invariants.coloring.spectrum.spectrum import determinant, invariant_factors
+from pipeline.invariants.alexander.fox import alexander_polynomial
+from pipeline.invariants.coloring.spectrum import determinant, invariant_factors
 from pipeline.invariants.signature import signature
-from pipeline.invariants.jones.frontier.frontier import jones_polynomial
+from pipeline.invariants.jones.frontier import jones_polynomial
 from pipeline.identify.normal_forms import montesinos_nf, pretzel_nf, torus_nf, two_bridge_nf
 from pipeline.diagrams.notation import parse
 from pipeline.invariants.poly import Laurent
