@@ -20,10 +20,10 @@ from __future__ import annotations
 
 import hashlib
 import json
-from itertools import combinations
 from typing import Any, Optional
 
 from ..diagrams.diagram import Diagram
+from ..invariants.linking import reversal_linkings
 from ..invariants.poly import Laurent
 
 __all__ = ["fingerprint", "mirror_fingerprint", "jones_orientation_set", "MAX_ORIENTATION_COMPONENTS"]
@@ -58,23 +58,10 @@ def jones_orientation_set(diagram: Diagram, jones: Laurent) -> Optional[list[lis
     Morton's formula: reversing the sublink K multiplies V by t^{−3 lk(K, L−K)}.
     None when the diagram has more than ``MAX_ORIENTATION_COMPONENTS`` components.
     """
-    comps = diagram.components
-    c = len(comps)
-    if c > MAX_ORIENTATION_COMPONENTS:
+    if len(diagram.components) > MAX_ORIENTATION_COMPONENTS:
         return None
-    comp_of = diagram.component_of_label
-    lk2 = [[0] * c for _ in range(c)]     # 2·lk
-    for i, (a, b, _, d) in enumerate(diagram.pd):
-        x, y = comp_of[a], comp_of[b]
-        if x != y:
-            lk2[x][y] += diagram.signs[i]
-            lk2[y][x] += diagram.signs[i]
-    out = set()
-    for r in range(c + 1):
-        for sub in combinations(range(c), r):
-            rest = [j for j in range(c) if j not in sub]
-            lam = sum(lk2[i][j] for i in sub for j in rest) // 2
-            out.add(json.dumps(jones.shift(-6 * lam).to_json()))
+    # reversing K or its complement gives the same λ: the sublinks of 1..c−1 suffice
+    out = {json.dumps(jones.shift(-6 * lam).to_json()) for _, lam in reversal_linkings(diagram)}
     return sorted(json.loads(s) for s in out)
 
 

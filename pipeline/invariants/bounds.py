@@ -42,6 +42,7 @@ from math import ceil, isqrt
 from typing import Any, Optional, Sequence
 
 from ..diagrams.diagram import Diagram
+from .linking import linking_numbers
 from .poly import Laurent
 
 __all__ = [
@@ -121,29 +122,6 @@ def arf_invariant(determinant: int) -> Optional[int]:
     if determinant % 2 == 0:
         return None
     return 0 if determinant % 8 in (1, 7) else 1
-
-
-def linking_numbers(diagram: Diagram) -> dict[tuple[int, int], int]:
-    """Linking numbers of pairs of components (indices into ``diagram.components``).
-
-    lk(K_i, K_j) = ½ Σ sign(c) over the crossings between K_i and K_j (i < j);
-    every pair is listed, free loops are not (they link nothing).  Depends on the
-    orientation of the components.
-
-    Examples
-    --------
-    >>> from pipeline.diagrams.notation import parse
-    >>> linking_numbers(parse("torus:2,4"))
-    {(0, 1): 2}
-    """
-    comp = diagram.component_of_label
-    k = len(diagram.components)
-    total = {(i, j): 0 for i in range(k) for j in range(i + 1, k)}
-    for x, s in zip(diagram.pd, diagram.signs):
-        a, b = comp[x[0]], comp[x[1]]
-        if a != b:
-            total[(min(a, b), max(a, b))] += s
-    return {key: v // 2 for key, v in total.items()}
 
 
 def genus_lower_bound(alexander: Laurent, components: int = 1) -> int:
