@@ -8,11 +8,11 @@ A budget overrun or a failure in one invariant never loses the others: the value
 from __future__ import annotations
 
 import time
-from math import isqrt
 from typing import Any, Callable, Optional
 
 from ..diagrams.diagram import Diagram
 from ..errors import BudgetExceeded
+from ..numbers import primes_upto
 
 __all__ = ["compute_all", "ALGORITHM_VERSIONS"]
 
@@ -81,7 +81,7 @@ def compute_all(diagram: Diagram, *, max_modulus: int = 16, jones_budget: Option
         det = coloring.determinant(diagram)
         counts = coloring.coloring_counts(diagram, max_modulus=max_modulus)
         witnesses, fewest = {}, {}
-        for p in _primes_upto(max_modulus):
+        for p in primes_upto(max_modulus):
             if det % p == 0:
                 w = coloring.witness_coloring(diagram, p)
                 if w is not None:
@@ -126,6 +126,3 @@ def _jones(jones, diagram: Diagram, notation: Optional[str], budget: Optional[in
             return jones.jones_from_bracket(bracket, diagram.writhe)
     return jones.jones_polynomial(diagram, budget=budget)
 
-
-def _primes_upto(n: int) -> list[int]:
-    return [p for p in range(2, n + 1) if all(p % q for q in range(2, isqrt(p) + 1))]
