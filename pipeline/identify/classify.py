@@ -39,6 +39,7 @@ from typing import Any, Optional
 
 from ..diagrams.canonical import canonical_text, diagram_id
 from ..diagrams.diagram import Diagram
+from ..diagrams.notation import parse_notation, split_notation
 from ..errors import KnotLedgerError
 from .fingerprint import (_factors, _invert, _poly, fingerprint, jones_orientation_set,
                           mirror_fingerprint)
@@ -52,13 +53,17 @@ class KeyConflictError(KnotLedgerError):
 
 
 # ---------------------------------------------------------------------- normal forms
-def _ints(text: str) -> list[int]:
-    return [int(t) for t in re.split(r"[,\s]+", text.strip()) if t]
+#: notation kinds with a normal form (a braid word only in the torus form)
+_NF_KINDS = ("torus", "rational", "conway", "pretzel", "montesinos", "braid")
 
 
 def normal_form(row: dict) -> Optional[NormalForm]:
-    """The normal form of a row from its notation (or family parameters); None if none applies."""
-    from ..diagrams.notation import split_notation
+    """The normal form of a row from its notation (or family parameters); None if none applies.
+
+    The notation is read by :func:`pipeline.diagrams.notation.parse_notation` (the
+    parser's numbers, no second reading of the string); a notation that does not parse
+    has no normal form.
+    """
     from ..diagrams.families.two_bridge import fraction_of
     notation = row.get("notation")
     try:
@@ -66,24 +71,24 @@ def normal_form(row: dict) -> Optional[NormalForm]:
             kind, args = split_notation(notation)
         else:
             kind, args = _from_params(row)
+        if kind not in _NF_KINDS:
+            return None
+        n = parse_notation(f"{kind}:{args}") if not notation else parse_notation(notation)
+        vals = list(n.args)
         if kind == "torus":
-            p, q = _ints(args)
-            return torus_nf(p, q)
+            return torus_nf(*vals)
         if kind == "rational":
-            a, b = args.split("/")
-            return two_bridge_nf(int(a), int(b))
+            return two_bridge_nf(*vals)
         if kind == "conway":
-            f = fraction_of(_ints(args))
+            f = fraction_of(vals)
             return None if f is None else two_bridge_nf(f.numerator, f.denominator)
         if kind == "pretzel":
-            return pretzel_nf(_ints(args))
+            return pretzel_nf(vals)
         if kind == "montesinos":
-            return montesinos_nf([Fraction(t.strip().replace(" ", "")) for t in args.split(",")])
-        if kind == "braid":
-            return _torus_braid(_ints(args))
+            return montesinos_nf(vals)
+        return _torus_braid(vals)
     except (ValueError, ZeroDivisionError, KnotLedgerError):
         return None
-    return None
 
 
 def _from_params(row: dict) -> tuple[str, str]:
