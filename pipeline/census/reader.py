@@ -77,9 +77,10 @@ def _mark_duplicates(diagrams) -> None:
     if diagrams.empty or "diagram_id" not in diagrams:
         return
     import pandas as pd
-    first = diagrams.groupby("diagram_id", dropna=True)["row_id"].transform("min")
-    dup = first.where(first < diagrams["row_id"])
-    diagrams["duplicate_of"] = dup.astype(pd.Int64Dtype())
+    from ..identify.classify import duplicate_of
+    ids = [None if pd.isna(v) else v for v in diagrams["diagram_id"].tolist()]
+    dup = duplicate_of([int(r) for r in diagrams["row_id"].tolist()], ids)
+    diagrams["duplicate_of"] = pd.array(dup, dtype=pd.Int64Dtype())
 
 
 def _nullable_types(arrow_type):

@@ -35,7 +35,7 @@ from __future__ import annotations
 import json
 import re
 from fractions import Fraction
-from typing import Any, Optional
+from typing import Any, Optional, Sequence
 
 from ..diagrams.canonical import canonical_text, diagram_id
 from ..diagrams.diagram import Diagram
@@ -46,7 +46,7 @@ from .fingerprint import (_factors, _invert, _poly, fingerprint, jones_orientati
 from .normal_forms import (CN_ALT, NormalForm, montesinos_nf, pretzel_nf, torus_nf, two_bridge_nf)
 
 __all__ = ["canonical_text", "diagram_id", "knot_key", "fingerprint", "build_knots_table",
-           "mark_duplicates", "normal_form", "is_reduced", "jones_orientation_set", "KeyConflictError"]
+           "mark_duplicates", "duplicate_of", "normal_form", "is_reduced", "jones_orientation_set", "KeyConflictError"]
 
 class KeyConflictError(KnotLedgerError):
     """Two rows under one knot key have different invariants (a bug somewhere)."""
@@ -210,18 +210,30 @@ def knot_key(row: dict) -> dict:
 
 
 # ---------------------------------------------------------------------- tables
+def duplicate_of(row_ids: Sequence[int], diagram_ids: Sequence[Optional[str]]) -> list[Optional[int]]:
+    """The ``duplicate_of`` column: for each row, the smallest row_id with the same
+    ``diagram_id`` when that is smaller than its own, else None (also for no diagram_id).
+
+    The one Python implementation, used for lists of rows (:func:`mark_duplicates`) and
+    for census frames read back (:mod:`pipeline.census.reader`); the SQL views of
+    :mod:`pipeline.explore.query` compute the same column in SQL.
+
+    Examples
+    --------
+    >>> duplicate_of([1, 2, 3], ["x", "y", "x"])
+    [None, None, 1]
+    """
+    first: dict = {}
+    for r, d in zip(row_ids, diagram_ids):
+        if d is not None and (d not in first or r < first[d]):
+            first[d] = r
+    return [None if d is None or first[d] >= r else first[d] for r, d in zip(row_ids, diagram_ids)]
+
+
 def mark_duplicates(rows: list[dict]) -> list[Optional[int]]:
     """For each row, the row_id of the first row (smallest row_id) with the same
     ``diagram_id``, or None if it is that first row (or has no diagram_id)."""
-    first: dict[str, int] = {}
-    for r in sorted(rows, key=lambda r: r["row_id"]):
-        if r.get("diagram_id") is not None:
-            first.setdefault(r["diagram_id"], r["row_id"])
-    out = []
-    for r in rows:
-        f = first.get(r.get("diagram_id")) if r.get("diagram_id") is not None else None
-        out.append(None if f is None or f == r["row_id"] else f)
-    return out
+    return duplicate_of([r["row_id"] for r in rows], [r.get("diagram_id") for r in rows])
 
 
 _ALWAYS = ("components", "determinant", "invariant_factors")
