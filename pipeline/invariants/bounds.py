@@ -39,11 +39,12 @@ References
 from __future__ import annotations
 
 from math import ceil, isqrt
-from typing import Any, Optional, Sequence
+from typing import Any, Mapping, Optional, Sequence
 
 from ..diagrams.diagram import Diagram
 from .linking import linking_numbers
 from .poly import Laurent
+from .row import InvariantValues
 
 __all__ = [
     "nugatory_crossings",
@@ -170,7 +171,7 @@ def bridge_lower_bound(invariant_factors: Sequence[int]) -> int:
     return _nonunit(invariant_factors) + 1
 
 
-def all_bounds(diagram: Diagram, values: dict[str, Any]) -> dict[str, Any]:
+def all_bounds(diagram: Diagram, values: "InvariantValues | Mapping[str, Any]") -> dict[str, Any]:
     """Every fact and bound above that the available values allow (census row part).
 
     Keys: ``alternating``, ``reduced``, ``nugatory``, ``crossing_number``,
@@ -178,9 +179,13 @@ def all_bounds(diagram: Diagram, values: dict[str, Any]) -> dict[str, Any]:
     (links; JSON-friendly ``{"i-j": lk}``), ``arf`` (knots), ``genus_lower_bound``,
     ``four_genus_lower_bound`` (knots), ``slice_obstructed`` (knots),
     ``unknotting_lower_bound`` (knots), ``bridge_lower_bound``.
+
+    ``values`` is an :class:`~pipeline.invariants.row.InvariantValues` (a mapping is read
+    through :meth:`~pipeline.invariants.row.InvariantValues.from_record`).
     """
+    values = InvariantValues.coerce(values)
     out: dict[str, Any] = {}
-    c = values.get("components", diagram.n_components)
+    c = diagram.n_components if values.components is None else values.components
     out["alternating"] = diagram.is_alternating()
     nug = nugatory_crossings(diagram)
     out["reduced"] = not nug
@@ -188,10 +193,8 @@ def all_bounds(diagram: Diagram, values: dict[str, Any]) -> dict[str, Any]:
     out["crossing_number"], out["crossing_number_certified"] = crossing_number_bound(diagram)
     if c > 1:
         out["linking_numbers"] = {f"{i}-{j}": v for (i, j), v in linking_numbers(diagram).items()}
-    det = values.get("determinant")
-    factors = values.get("invariant_factors")
-    alex = values.get("alexander")
-    sig = values.get("signature")
+    det, factors = values.determinant, values.invariant_factors
+    alex, sig = values.alexander, values.signature
     if c == 1 and det is not None:
         out["arf"] = arf_invariant(det)
         out["slice_obstructed"] = slice_obstructed(det)

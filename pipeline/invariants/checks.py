@@ -73,7 +73,7 @@ from __future__ import annotations
 
 from fractions import Fraction
 from math import prod
-from typing import Any, Optional
+from typing import Any, Mapping
 
 from flint import fmpz_poly
 
@@ -81,6 +81,7 @@ from ..diagrams.diagram import Diagram
 from .poly import Laurent
 from . import bounds
 from .linking import linking_numbers
+from .row import InvariantValues
 
 __all__ = ["run_checks", "evaluate_at_root", "CHECK_NAMES"]
 
@@ -162,16 +163,18 @@ def _conway_substitute(conway: Laurent) -> Laurent:
 
 
 # ---------------------------------------------------------------- the checks
-def run_checks(diagram: Diagram, values: dict[str, Any]) -> dict[str, bool]:
+def run_checks(diagram: Diagram, values: "InvariantValues | Mapping[str, Any]") -> dict[str, bool]:
     """Evaluate every applicable relation (module table) on one row of values.
 
     Parameters
     ----------
     diagram : Diagram
-    values : dict
+    values : InvariantValues (or a mapping, read by ``InvariantValues.from_record``)
         Whatever was computed: ``determinant``, ``invariant_factors``, ``alexander``,
         ``conway``, ``jones`` (Laurent or None when skipped), ``signature``,
-        ``nullity``, ``components``.  Missing or None values omit their checks.
+        ``nullity``, ``components``.  None values omit their checks; the Goeritz
+        determinant check needs the signature too (the Goeritz matrix is the
+        signature's input: when the signature could not be computed, neither could it).
 
     Returns
     -------
@@ -186,18 +189,15 @@ def run_checks(diagram: Diagram, values: dict[str, Any]) -> dict[str, bool]:
     >>> run_checks(parse("torus:2,3"), {"jones": v, "determinant": 3})["jones_det"]
     True
     """
+    values = InvariantValues.coerce(values)
     out: dict[str, bool] = {}
-    c = values.get("components")
+    c = values.components
     c = diagram.n_components if c is None else c
     knot = c == 1
     n = diagram.n_crossings
-    det: Optional[int] = values.get("determinant")
-    factors = values.get("invariant_factors")
-    alex: Optional[Laurent] = values.get("alexander")
-    conway: Optional[Laurent] = values.get("conway")
-    jones: Optional[Laurent] = values.get("jones")
-    sig: Optional[int] = values.get("signature")
-    null: Optional[int] = values.get("nullity")
+    det, factors = values.determinant, values.invariant_factors
+    alex, conway, jones = values.alexander, values.conway, values.jones
+    sig, null = values.signature, values.nullity
 
     if det is not None and factors is not None:
         out["determinant_product"] = det == prod(factors)
@@ -268,7 +268,7 @@ def run_checks(diagram: Diagram, values: dict[str, Any]) -> dict[str, bool]:
             out["signature_parity"] = (sig + null - (c - 1)) % 2 == 0
     if null is not None and factors is not None:
         out["nullity_zero_factors"] = null == sum(1 for f in factors if f == 0)
-    if det is not None and ("signature" not in values or sig is not None):
+    if det is not None and sig is not None:
         from .signature import goeritz_determinant
         out["goeritz_det"] = abs(goeritz_determinant(diagram)) == det
     return dict(sorted(out.items()))

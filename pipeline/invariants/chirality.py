@@ -30,7 +30,7 @@ References
 
 from __future__ import annotations
 
-from typing import Any, Iterable, Optional
+from typing import Iterable, Optional
 
 from ..diagrams.diagram import Diagram
 from .linking import reversal_linkings
@@ -114,16 +114,17 @@ def _mirror_values(values: set[tuple]) -> set[tuple]:
     return {(v.invert() if v is not None else None, -s if s is not None else None) for v, s in values}
 
 
-def chirality(diagram: Diagram, values: dict[str, Any]) -> tuple[str, str]:
+def chirality(diagram: Diagram, *, jones: Optional[Laurent], signature: Optional[int]) -> tuple[str, str]:
     """Chirality verdict and its reason, from Jones and signature.
 
     Parameters
     ----------
     diagram : Diagram
-    values : dict
-        Already computed values: ``jones`` (Laurent or None when skipped) and
-        ``signature`` (int or None).  For links the other orientations' values follow
-        from these and the linking numbers (:func:`orientation_values`).
+    jones : Laurent or None
+        This diagram's Jones polynomial (None when skipped).
+    signature : int or None
+        Its signature (None when not computed).  For links the other orientations'
+        values follow from these and the linking numbers (:func:`orientation_values`).
 
     Returns
     -------
@@ -133,11 +134,10 @@ def chirality(diagram: Diagram, values: dict[str, Any]) -> tuple[str, str]:
     Examples
     --------
     >>> from pipeline.diagrams.notation import parse
-    >>> chirality(parse("torus:2,3"), {"jones": None, "signature": -2})[0]
+    >>> chirality(parse("torus:2,3"), jones=None, signature=-2)[0]
     'chiral (signature)'
     """
-    v: Optional[Laurent] = values.get("jones")
-    s: Optional[int] = values.get("signature")
+    v, s = jones, signature
     if len(diagram.components) <= 1:  # a knot (free loops only: the unknot/unlink family)
         if diagram.free_loops and diagram.components:
             return _link_verdict(diagram, v, s)
