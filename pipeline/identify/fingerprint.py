@@ -25,27 +25,20 @@ from typing import Any, Optional
 from ..diagrams.diagram import Diagram
 from ..invariants.linking import reversal_linkings
 from ..invariants.poly import Laurent
+from ..invariants.row import InvariantValues, _factor_tuple, _laurent
 
 __all__ = ["fingerprint", "mirror_fingerprint", "jones_orientation_set", "MAX_ORIENTATION_COMPONENTS"]
 
 MAX_ORIENTATION_COMPONENTS = 10
 def _poly(v: Any) -> Optional[list]:
     """A polynomial in README.md JSON form, from a Laurent, a JSON list or JSON text."""
-    if v is None:
-        return None
-    if isinstance(v, Laurent):
-        return v.to_json()
-    if isinstance(v, str):
-        v = json.loads(v)
-    return Laurent.from_json(v).to_json()
+    p = _laurent(v)
+    return None if p is None else p.to_json()
 
 
 def _factors(v: Any) -> Optional[list[int]]:
-    if v is None:
-        return None
-    if isinstance(v, str):
-        v = json.loads(v)
-    return [int(x) for x in v]
+    f = _factor_tuple(v)
+    return None if f is None else list(f)
 
 
 def _invert(p: Optional[list]) -> Optional[list]:
@@ -67,22 +60,21 @@ def jones_orientation_set(diagram: Diagram, jones: Laurent) -> Optional[list[lis
 
 def _fingerprint_data(row: dict, *, mirror: bool = False) -> tuple[dict, bool]:
     """(data, complete) of the fingerprint."""
-    comps = row.get("components")
-    data: dict[str, Any] = {"components": comps, "determinant": row.get("determinant"),
-                            "invariant_factors": _factors(row.get("invariant_factors"))}
-    if data["determinant"] is not None:
-        data["determinant"] = int(data["determinant"])
+    values = InvariantValues.from_record(row)      # the one reading of a (stored) row
+    comps = values.components
+    data: dict[str, Any] = {"components": comps, "determinant": values.determinant,
+                            "invariant_factors": _factors(values.invariant_factors)}
     if comps == 1:
-        jones = _poly(row.get("jones"))
-        sig = row.get("signature")
-        data["alexander"] = _poly(row.get("alexander"))
+        jones = _poly(values.jones)
+        sig = values.signature
+        data["alexander"] = _poly(values.alexander)
         data["jones"] = _invert(jones) if mirror else jones
-        data["signature"] = None if sig is None else (-int(sig) if mirror else int(sig))
+        data["signature"] = None if sig is None else (-sig if mirror else sig)
     else:
         js = row.get("jones_orientations")
-        d, jones = row.get("diagram"), row.get("jones")
+        d, jones = row.get("diagram"), values.jones
         if js is None and isinstance(d, Diagram) and jones is not None:
-            js = jones_orientation_set(d, jones if isinstance(jones, Laurent) else Laurent.from_json(_poly(jones)))
+            js = jones_orientation_set(d, jones)
         if js is not None and mirror:
             js = sorted(_invert(p) for p in js)
         data["jones_orientations"] = js
