@@ -74,7 +74,8 @@ class UnionFind:
     Examples
     --------
     >>> uf = UnionFind(range(4))
-    >>> uf.union(0, 1); uf.union(2, 3); uf.union(1, 0)
+    >>> uf.union(0, 1), uf.union(2, 3), uf.union(1, 0)
+    (True, True, False)
     >>> uf.find(1) == uf.find(0), uf.find(1) == uf.find(2), uf.count()
     (True, False, 2)
     """
