@@ -120,19 +120,6 @@ def _gaussian(p: Laurent) -> tuple[int, int]:
     return cs[0], cs[1]
 
 
-def _conway_at(conway: Laurent, re: int, im: int) -> tuple[int, int]:
-    """∇(z) at the Gaussian integer z = re + i·im (∇ stores z^k with doubled exponent 2k)."""
-    out = (0, 0)
-    for j, c in conway.terms:
-        if j % 2 or j < 0:
-            raise ValueError("a Conway polynomial has nonnegative integer exponents")
-        w = (1, 0)
-        for _ in range(j // 2):
-            w = (w[0] * re - w[1] * im, w[0] * im + w[1] * re)
-        out = (out[0] + c * w[0], out[1] + c * w[1])
-    return out
-
-
 def _i_power(e: int) -> tuple[int, int]:
     return ((1, 0), (0, 1), (-1, 0), (0, -1))[e % 4]
 
