@@ -41,6 +41,7 @@ from ..diagrams.canonical import canonical_text, diagram_id
 from ..diagrams.diagram import Diagram
 from ..diagrams.notation import parse_notation, split_notation
 from ..errors import KnotLedgerError
+from ..invariants.row import InvariantValues
 from .fingerprint import (_factors, _invert, _poly, fingerprint, jones_orientation_set,
                           mirror_fingerprint)
 from .normal_forms import (CN_ALT, NormalForm, montesinos_nf, pretzel_nf, torus_nf, two_bridge_nf)
@@ -196,11 +197,12 @@ def knot_key(row: dict) -> dict:
         return out
     mfp = mirror_fingerprint(row)
     amph, reason = None, "unknown: invariants do not decide"
-    if row.get("components") == 1:
-        j = _poly(row.get("jones"))
-        if j is not None and j != _invert(j):
+    values = InvariantValues.from_record(row)
+    if values.components == 1:
+        j = values.jones
+        if j is not None and j != j.invert():
             amph, reason = False, "chiral (jones): V(t) != V(1/t)"
-        elif row.get("signature") not in (None, 0):
+        elif values.signature not in (None, 0):
             amph, reason = False, "chiral (signature): signature != 0"
     elif fp.startswith("fp:") and mfp != fp:
         amph, reason = False, "chiral (jones): the sets of Jones polynomials over orientations differ"

@@ -29,9 +29,16 @@ from .poly import Laurent
 __all__ = ["InvariantValues", "CensusRow"]
 
 
+def _missing(v: Any) -> bool:
+    """None, or a table library's missing marker (NaN, pandas' NA)."""
+    return v is None or (isinstance(v, float) and v != v) or type(v).__name__ == "NAType"
+
+
 def _laurent(v: Any) -> Optional[Laurent]:
     """A Laurent polynomial from a Laurent, a README.md JSON list or JSON text."""
-    if v is None or isinstance(v, Laurent):
+    if _missing(v):
+        return None
+    if isinstance(v, Laurent):
         return v
     if isinstance(v, str):
         v = json.loads(v)
@@ -39,11 +46,11 @@ def _laurent(v: Any) -> Optional[Laurent]:
 
 
 def _int_or_none(v: Any) -> Optional[int]:
-    return None if v is None else int(v)
+    return None if _missing(v) else int(v)
 
 
 def _factor_tuple(v: Any) -> Optional[tuple[int, ...]]:
-    if v is None:
+    if _missing(v):
         return None
     if isinstance(v, str):
         v = json.loads(v)
