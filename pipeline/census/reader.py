@@ -78,8 +78,9 @@ def _mark_duplicates(diagrams) -> None:
         return
     import pandas as pd
     from ..identify.classify import duplicate_of
-    ids = [None if pd.isna(v) else v for v in diagrams["diagram_id"].tolist()]
-    dup = duplicate_of([int(r) for r in diagrams["row_id"].tolist()], ids)
+    did = diagrams["diagram_id"]
+    ids = did.astype(object).where(did.notna(), None).tolist()
+    dup = duplicate_of(diagrams["row_id"].astype("int64").tolist(), ids)
     diagrams["duplicate_of"] = pd.array(dup, dtype=pd.Int64Dtype())
 
 

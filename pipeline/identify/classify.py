@@ -226,10 +226,12 @@ def duplicate_of(row_ids: Sequence[int], diagram_ids: Sequence[Optional[str]]) -
     [None, None, 1]
     """
     first: dict = {}
+    get = first.get
     for r, d in zip(row_ids, diagram_ids):
-        if d is not None and (d not in first or r < first[d]):
-            first[d] = r
-    return [None if d is None or first[d] >= r else first[d] for r, d in zip(row_ids, diagram_ids)]
+        f = get(d)
+        if f is None or r < f:
+            first[d] = r                    # (a None key is collected too, and never read)
+    return [None if d is None or (f := first[d]) >= r else f for r, d in zip(row_ids, diagram_ids)]
 
 
 def mark_duplicates(rows: list[dict]) -> list[Optional[int]]:
