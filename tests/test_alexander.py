@@ -15,7 +15,7 @@ from pipeline import parse
 from pipeline.diagrams.diagram import Diagram
 from pipeline.errors import KnotLedgerError
 from pipeline.diagrams.families import braid
-from pipeline.invariants.alexander.fox.fox import (alexander_polynomial, conway_from_alexander,
+from pipeline.invariants.alexander.fox import (alexander_polynomial, conway_from_alexander,
                                            conway_polynomial, crossing_change, smoothing)
 from pipeline.invariants.poly import Laurent
 
@@ -224,7 +224,7 @@ def test_first_conway_coefficient_of_two_component_link_is_linking_number(alpha)
 
 def test_determinant_matches_colouring_route():
     # |Δ(−1)| = det = product of the invariant factors (SOURCES.md "Relations")
-    coloring = pytest.importorskip("pipeline.invariants.coloring.spectrum.spectrum")
+    coloring = pytest.importorskip("pipeline.invariants.coloring.spectrum")
     for text in ["pretzel:3,3,-3", "pretzel:2,4,6", "torus:3,6", "torus:4,6", "rational:24/7",
                  "pretzel:5,-3,7,2", "braid:1,1,-2,1,3,-2,3", "montesinos:2/5,1/3,-3/7"]:
         d = parse(text)
@@ -375,7 +375,7 @@ def test_signed_alexander_at_minus_one_matches_signature(sw):
     # (SOURCES.md "Relations", common practice): checks the sign of a link's Δ against the
     # signature computed from a Goeritz matrix (Gordon–Litherland), an unrelated route
     signature = pytest.importorskip("pipeline.invariants.signature")
-    coloring = pytest.importorskip("pipeline.invariants.coloring.spectrum.spectrum")
+    coloring = pytest.importorskip("pipeline.invariants.coloring.spectrum")
     strands, word = sw
     d = braid.diagram(word, strands=strands)
     det = coloring.determinant(d)
@@ -392,7 +392,7 @@ def test_signed_alexander_at_minus_one_matches_signature(sw):
 def test_linking_cofactor_sign_agrees_with_skein_sign(sw):
     # the two ways the sign of a link's Δ is fixed must agree: the lowest Conway coefficient
     # (Hosokawa 1958; Hoste 1985) and the skein relation alone (Conway 1970)
-    from pipeline.invariants.alexander.fox.fox import _sign_by_skein, _unsigned_delta
+    from pipeline.invariants.alexander.fox import _sign_by_skein, _unsigned_delta
     strands, word = sw
     d = braid.diagram(word, strands=strands)
     assume(d.n_components > 1)

@@ -48,3 +48,39 @@ def test_a_failing_invariant_is_recorded_not_raised(monkeypatch):
     assert row["signature"] is None
     assert "error in signature: RuntimeError: deliberately broken" in row["status"]
     assert row["determinant"] == 5 and row["jones"] is not None
+
+
+# ---------------------------------------------------------------- the typed row
+def test_typed_row_is_frozen_and_to_record_is_the_stored_dict():
+    import dataclasses
+
+    from pipeline.invariants.all import compute_row
+    from pipeline.invariants.row import CensusRow, InvariantValues
+
+    d = parse("pretzel:2,-3,5")
+    row = compute_row(d, notation="pretzel:2,-3,5")
+    assert isinstance(row, CensusRow)
+    with pytest.raises(dataclasses.FrozenInstanceError):
+        row.jones = None
+    rec = row.to_record()
+    assert list(rec) == [f.name for f in dataclasses.fields(CensusRow)]
+    old = compute_all(d, notation="pretzel:2,-3,5")
+    assert {k: v for k, v in rec.items() if k != "timings"} == {k: v for k, v in old.items() if k != "timings"}
+    # the stored form (JSON lists, string factors) reads back to the same typed values
+    stored = {"components": rec["components"], "determinant": rec["determinant"],
+              "invariant_factors": [str(f) for f in rec["invariant_factors"]],
+              "alexander": rec["alexander"].to_json(), "conway": None,
+              "jones": __import__("json").dumps(rec["jones"].to_json()),
+              "signature": rec["signature"], "nullity": rec["nullity"]}
+    back = InvariantValues.from_record(stored)
+    assert back == dataclasses.replace(row.values(), conway=None)
+
+
+def test_every_check_of_a_full_row_runs_from_the_typed_values():
+    # a typed row has every input field, so no check is dropped by a missing key:
+    # a knot row with all invariants computed runs every relation of checks.CHECK_NAMES
+    from pipeline.invariants.all import compute_row
+    from pipeline.invariants.checks import CHECK_NAMES
+
+    row = compute_row(parse("conway:3 2"))   # 5_2, alternating
+    assert set(row.checks) == set(CHECK_NAMES) and all(row.checks.values())

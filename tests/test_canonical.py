@@ -10,8 +10,8 @@ from hypothesis import given, settings, strategies as st
 
 from pipeline.diagrams.canonical import canonical_text, diagram_id, turn_over_pd
 from pipeline.diagrams.diagram import Diagram
-from pipeline.invariants.coloring.spectrum.spectrum import invariant_factors
-from pipeline.invariants.jones.frontier.frontier import jones_polynomial
+from pipeline.invariants.coloring.spectrum import invariant_factors
+from pipeline.invariants.jones.frontier import jones_polynomial
 from pipeline.diagrams.notation import parse
 
 

@@ -9,7 +9,7 @@ import pytest
 from pipeline.diagrams.notation import parse
 from pipeline.invariants.bounds import linking_numbers
 from pipeline.invariants.chirality import chirality, orientation_values, reverse_components
-from pipeline.invariants.jones.frontier.frontier import jones_polynomial
+from pipeline.invariants.jones.frontier import jones_polynomial
 from pipeline.invariants.signature import signature
 
 VERDICTS = {"chiral (jones)", "chiral (signature)", "unknown"}
@@ -18,7 +18,7 @@ VERDICTS = {"chiral (jones)", "chiral (signature)", "unknown"}
 def verdict(notation: str, *, with_jones: bool = True) -> tuple[str, str]:
     d = parse(notation)
     values = {"jones": jones_polynomial(d) if with_jones else None, "signature": signature(d)}
-    return chirality(d, values)
+    return chirality(d, **values)
 
 
 # ---------------------------------------------------------------- knots
@@ -61,12 +61,14 @@ def test_mirror_has_the_same_verdict():
     for notation in ["torus:2,5", "conway:3 1 2", "torus:2,4", "pretzel:2,2,2"]:
         d = parse(notation)
         m = d.mirror()
-        assert chirality(m, {"jones": jones_polynomial(m), "signature": signature(m)})[0] == verdict(notation)[0]
+        assert chirality(m, jones=jones_polynomial(m), signature=signature(m))[0] == verdict(notation)[0]
 
 
 def test_nothing_computed_gives_unknown():
-    assert chirality(parse("torus:2,3"), {"jones": None, "signature": None})[0] == "unknown"
-    assert chirality(parse("torus:2,2"), {})[0] == "unknown"
+    assert chirality(parse("torus:2,3"), jones=None, signature=None)[0] == "unknown"
+    assert chirality(parse("torus:2,2"), jones=None, signature=None)[0] == "unknown"
+    with pytest.raises(TypeError):   # the inputs are explicit: a forgotten one is an error
+        chirality(parse("torus:2,2"), jones=None)
 
 
 # ---------------------------------------------------------------- links
@@ -178,7 +180,7 @@ def test_link_uses_signatures_when_jones_was_skipped():
     d = parse("torus:2,4")
     values = {"jones": None, "signature": signature(d)}   # Jones skipped by its budget
     assert signature(reverse_components(d, [1])) == 1
-    assert chirality(d, values) == (
+    assert chirality(d, **values) == (
         "chiral (signature)", "signatures over 2 orientations differ from the mirror's")
 
 

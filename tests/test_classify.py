@@ -14,10 +14,10 @@ import pytest
 from pipeline.identify.classify import (KeyConflictError, build_knots_table, fingerprint, jones_orientation_set,
                                is_reduced, knot_key, mark_duplicates, normal_form)
 from pipeline.diagrams.diagram import Diagram
-from pipeline.invariants.alexander.fox.fox import alexander_polynomial
-from pipeline.invariants.coloring.spectrum.spectrum import determinant, invariant_factors
+from pipeline.invariants.alexander.fox import alexander_polynomial
+from pipeline.invariants.coloring.spectrum import determinant, invariant_factors
 from pipeline.invariants.signature import signature
-from pipeline.invariants.jones.frontier.frontier import jones_polynomial
+from pipeline.invariants.jones.frontier import jones_polynomial
 from pipeline.identify.normal_forms import montesinos_nf, pretzel_nf, torus_nf, two_bridge_nf
 from pipeline.diagrams.notation import parse
 from pipeline.invariants.poly import Laurent
@@ -460,3 +460,26 @@ def test_small_montesinos_cases_do_not_claim_distinctness():
     row = {"knot_key": "mont:1/6:1/2,1/3,1/3", "proof": "normal form"}
     note = _distinctness_note(row, ["mont:5/6:1/2,2/3,1/3"], {"mont:5/6:1/2,2/3,1/3": "normal form"})
     assert "not proven" in note and "by the classification theorem" not in note
+
+
+@pytest.mark.parametrize("seed", range(4))
+def test_duplicate_of_python_equals_the_sql_view_and_brute_force(seed):
+    # the one Python duplicate_of against the SQL column of explore/query.py (duckdb) and
+    # the definition read literally (smallest other row_id with the same diagram_id)
+    import random
+
+    import duckdb
+    import pandas as pd
+
+    from pipeline.explore.query import _VIEW_COLUMNS
+    from pipeline.identify.classify import duplicate_of
+    rng = random.Random(seed)
+    ids = rng.sample(range(1000), 40)
+    dids = [rng.choice(["a", "b", "c", "d", None]) for _ in ids]
+    py = duplicate_of(ids, dids)
+    brute = [None if d is None or min(r2 for r2, d2 in zip(ids, dids) if d2 == d) == r
+             else min(r2 for r2, d2 in zip(ids, dids) if d2 == d) for r, d in zip(ids, dids)]
+    frame = pd.DataFrame({"row_id": ids, "diagram_id": dids})
+    sql = duckdb.sql(f"SELECT row_id, duplicate_of FROM (SELECT {_VIEW_COLUMNS['diagrams']} FROM frame)").fetchall()
+    by_row = {r: (None if v is None else int(v)) for r, v in sql}
+    assert py == brute == [by_row[r] for r in ids]

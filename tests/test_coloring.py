@@ -17,7 +17,7 @@ from sympy import Matrix, ZZ
 from sympy.matrices.normalforms import smith_normal_form
 
 from pipeline.diagrams.notation import parse
-from pipeline.invariants.coloring.spectrum.spectrum import (
+from pipeline.invariants.coloring.spectrum import (
     coloring_counts,
     coloring_matrix,
     count_colorings,
@@ -345,7 +345,7 @@ def test_bad_modulus_is_refused():
 def test_sparse_euclidean_diagonalisation_equals_sympy_smith_form(seed):
     # The stage used when more than DENSE_LIMIT rows survive the ±1 pivots, checked on
     # random sparse integer matrices against sympy's Smith form (Smith 1861).
-    from pipeline.invariants.coloring.spectrum.sparse_elimination import diagonalise, smith_of_diagonal
+    from pipeline.invariants.coloring.sparse_elimination import diagonalise, smith_of_diagonal
 
     rng = random.Random(seed)
     nrows, ncols = rng.randint(1, 7), rng.randint(1, 7)
@@ -365,7 +365,7 @@ def test_unit_pivot_sweep_keeps_the_smith_form_of_random_matrices(seed):
     # The ±1 pivot stage (Markowitz threshold sweep) on random sparse integer matrices
     # with many unit entries: Smith(M) = (1, ..., 1) ⊕ Smith(rest), compared with
     # sympy's Smith form of M (Smith 1861).
-    from pipeline.invariants.coloring.spectrum.sparse_elimination import eliminate_units
+    from pipeline.invariants.coloring.sparse_elimination import eliminate_units
 
     rng = random.Random(1000 + seed)
     nrows, ncols = rng.randint(1, 9), rng.randint(1, 9)
@@ -395,7 +395,7 @@ def test_smith_order_of_a_diagonal_equals_sympy(seed):
     # sympy's Smith form of the diagonal matrix (Smith 1861).
     from sympy import diag
 
-    from pipeline.invariants.coloring.spectrum.sparse_elimination import smith_of_diagonal
+    from pipeline.invariants.coloring.sparse_elimination import smith_of_diagonal
 
     rng = random.Random(2000 + seed)
     pool = [-1, 1, 2, 3, 4, 6, 8, 9, 12, 18, 36, 5, 60] if seed % 2 else [-1, 1, 3, -3, 9, 27, 54]

@@ -110,3 +110,27 @@ def test_random_braid_closures_validate_and_count_faces():
         # Euler: each connected piece with c crossings has c + 2 faces
         assert len(d.faces) == sum(len(p) + 2 for p in d.pieces)
         assert sum(len(a) for a in d.arcs) == 2 * d.n_crossings
+
+
+# ---------------------------------------------------------------- crossing change, plane graph
+@pytest.mark.parametrize("text", ["torus:2,5", "conway:3 1 2", "pretzel:2,-3,3", "braid:1,-2,1,-2"])
+def test_change_crossings_flips_exactly_those_signs(text):
+    from pipeline.invariants.alexander.fox import crossing_change
+    d = parse(text)
+    picked = list(range(0, d.n_crossings, 2))
+    e = d.change_crossings(picked)
+    assert [(-s if i in picked else s) for i, s in enumerate(d.signs)] == list(e.signs)
+    assert e.change_crossings(picked) == d                  # an involution on the PD code
+    assert d.mirror() == d.change_crossings(range(d.n_crossings))
+    assert crossing_change(d, 1).signs[1] == -d.signs[1]
+
+
+@pytest.mark.parametrize("text", ["torus:3,4", "dt:4 8 10 2 6", "pretzel:2,2,2", "pd:[[1,1,2,2]] loops=1"])
+def test_faces_follow_euler_and_pieces_partition_the_crossings(text):
+    # a connected plane 4-valent graph with c vertices has c + 2 faces (Euler: V − E + F = 2, E = 2V)
+    from pipeline.diagrams.plane import connected_pieces, trace_faces
+    d = parse(text)
+    assert len(trace_faces(d.pd)) == sum(len(p) + 2 for p in d.pieces)
+    assert sorted(i for p in connected_pieces(d.pd) for i in p) == list(range(d.n_crossings))
+    slots = [s for f in d.faces for s in f]
+    assert sorted(slots) == [(i, s) for i in range(d.n_crossings) for s in range(4)]

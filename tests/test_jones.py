@@ -19,9 +19,9 @@ from hypothesis import strategies as st
 from pipeline.errors import BudgetExceeded, NotationError
 from pipeline.diagrams.families import braid
 from pipeline.diagrams.families.two_bridge import continued_fraction
-from pipeline.invariants.jones.frontier.tangle_bracket import (bracket_of_notation, montesinos_bracket, rational_tangle_bracket,
+from pipeline.invariants.jones.tangle_bracket import (bracket_of_notation, montesinos_bracket, rational_tangle_bracket,
                                              two_bridge_bracket)
-from pipeline.invariants.jones.frontier.frontier import crossing_order, jones_from_bracket, jones_polynomial, kauffman_bracket
+from pipeline.invariants.jones.frontier import crossing_order, jones_from_bracket, jones_polynomial, kauffman_bracket
 from pipeline.diagrams.notation import parse
 from pipeline.invariants.poly import Laurent
 
@@ -395,7 +395,7 @@ def test_jones_from_bracket_refuses_a_wrong_writhe():
 def test_any_crossing_order_gives_the_same_bracket(text, rnd):
     # the programme is correct for every order, not only the greedy one (Kauffman 1987: the
     # state sum does not depend on the order in which crossings are smoothed)
-    import pipeline.invariants.jones.frontier.frontier as jones_module
+    import pipeline.invariants.jones.frontier as jones_module
 
     d = parse(text)
     order = list(range(d.n_crossings))

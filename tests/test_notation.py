@@ -151,3 +151,38 @@ def test_random_pd_mutations_raise_only_notation_error():
             parse("pd:" + str(pd))
         except NotationError:
             pass
+
+
+# ---------------------------------------------------------------- the typed Notation value
+from fractions import Fraction  # noqa: E402
+
+from pipeline.diagrams.notation import Notation, parse_notation  # noqa: E402
+from pipeline.invariants.jones import bracket_of_notation  # noqa: E402
+
+
+@pytest.mark.parametrize("text,kind,args", [
+    ("torus:2,-3", "torus", (2, -3)), ("rational: 7 / 3 ", "rational", (7, 3)),
+    ("conway:2 1 2", "conway", (2, 1, 2)), ("pretzel:-2,3,3", "pretzel", (-2, 3, 3)),
+    ("montesinos:1/3, -2, 2/-5", "montesinos", (Fraction(1, 3), Fraction(-2), Fraction(-2, 5))),
+    ("braid:1,-2", "braid", (1, -2)), ("DT:4 6 2", "dt", (4, 6, 2)),
+    ("pd:[[1,1,2,2]] loops=2", "pd", (((1, 1, 2, 2),), 2))])
+def test_parse_notation_reads_the_numbers(text, kind, args):
+    n = parse_notation(text)
+    assert n == Notation(kind, args)
+    assert n.diagram() == parse(text)          # the same diagram as the string route
+
+
+@pytest.mark.parametrize("text", ["torus:2", "rational:3", "montesinos:", "montesinos:1/0",
+                                  "pd:[[1,2,3]]", "braid:x", "dt:4 6 3", "pd:{}", "pd:[[1,2,1,2]]"])
+def test_parse_and_parse_notation_refuse_the_same_way(text):
+    with pytest.raises(NotationError) as a:
+        parse(text)
+    with pytest.raises(NotationError) as b:
+        parse_notation(text).diagram()     # either step may refuse; the message is parse's
+    assert str(b.value) == str(a.value)
+
+
+@pytest.mark.parametrize("text", ["conway:2 1 2", "rational:13/5", "pretzel:2,-3,5",
+                                  "montesinos:1/3,2/5,-1/2", "torus:2,5", "pd:[[1,1,2,2]]"])
+def test_fast_bracket_takes_the_typed_value(text):
+    assert bracket_of_notation(parse_notation(text)) == bracket_of_notation(text)

@@ -9,7 +9,7 @@ import sys
 import pytest
 
 from pipeline import cli
-from pipeline.invariants.coloring.spectrum.spectrum import coloring_matrix
+from pipeline.invariants.coloring.spectrum import coloring_matrix
 from pipeline.diagrams.notation import parse
 
 

@@ -77,9 +77,11 @@ def _mark_duplicates(diagrams) -> None:
     if diagrams.empty or "diagram_id" not in diagrams:
         return
     import pandas as pd
-    first = diagrams.groupby("diagram_id", dropna=True)["row_id"].transform("min")
-    dup = first.where(first < diagrams["row_id"])
-    diagrams["duplicate_of"] = dup.astype(pd.Int64Dtype())
+    from ..identify.classify import duplicate_of
+    did = diagrams["diagram_id"]
+    ids = did.astype(object).where(did.notna(), None).tolist()
+    dup = duplicate_of(diagrams["row_id"].astype("int64").tolist(), ids)
+    diagrams["duplicate_of"] = pd.array(dup, dtype=pd.Int64Dtype())
 
 
 def _nullable_types(arrow_type):

@@ -31,6 +31,7 @@ from functools import cached_property
 from typing import Iterable, Sequence
 
 from ..errors import DiagramError
+from .plane import check_planar, connected_pieces, slots_of, trace_faces
 
 __all__ = ["Diagram", "Slot"]
 
@@ -128,11 +129,7 @@ class Diagram:
 
     @cached_property
     def _slots_of(self) -> dict[int, list[Slot]]:
-        where: dict[int, list[Slot]] = {}
-        for i, x in enumerate(self.pd):
-            for s, v in enumerate(x):
-                where.setdefault(v, []).append((i, s))
-        return where
+        return slots_of(self.pd)
 
     def twin(self, slot: Slot) -> Slot:
         """The other end of the edge at ``slot``."""
@@ -245,47 +242,12 @@ class Diagram:
                         f"pd: inconsistent orientation: label {seq[k]} is followed by "
                         f"{seq[(k + 1) % n]} along its component (labels must increase "
                         f"along the orientation read from the under-strands a -> c)")
-        # planarity: each connected piece with c crossings must have c + 2 faces
-        pieces = self._pieces()
-        faces_per_piece: dict[int, int] = {}
-        piece_of = {}
-        for p, xs in enumerate(pieces):
-            for i in xs:
-                piece_of[i] = p
-        for f in self.faces:
-            p = piece_of[f[0][0]]
-            faces_per_piece[p] = faces_per_piece.get(p, 0) + 1
-        for p, xs in enumerate(pieces):
-            if faces_per_piece.get(p, 0) != len(xs) + 2:
-                raise DiagramError(
-                    f"pd: not planar: the piece with crossings {[i + 1 for i in sorted(xs)][:6]}"
-                    f"{'...' if len(xs) > 6 else ''} has {len(xs)} crossings but "
-                    f"{faces_per_piece.get(p, 0)} faces (a planar diagram has {len(xs) + 2}; "
-                    f"this is a virtual diagram)")
-
-    def _pieces(self) -> list[list[int]]:
-        """Connected pieces of the diagram as lists of crossing indices."""
-        parent = list(range(len(self.pd)))
-
-        def find(i):
-            while parent[i] != i:
-                parent[i] = parent[parent[i]]
-                i = parent[i]
-            return i
-
-        for ends in self._slots_of.values():
-            a, b = find(ends[0][0]), find(ends[1][0])
-            if a != b:
-                parent[a] = b
-        groups: dict[int, list[int]] = {}
-        for i in range(len(self.pd)):
-            groups.setdefault(find(i), []).append(i)
-        return sorted(groups.values())
+        check_planar(pd, self.pieces, self.faces)
 
     @property
     def pieces(self) -> list[list[int]]:
         """Connected pieces (split components of the diagram), as crossing indices."""
-        return self._get("pieces", self._pieces)
+        return self._get("pieces", lambda: connected_pieces(self.pd, self._slots_of))
 
     # ------------------------------------------------------------------ derived data
     @property
@@ -362,28 +324,22 @@ class Diagram:
         arriving at its twin ``(j, t)`` and turning to the next slot
         counterclockwise ``(j, t+1)``; each face is listed from its smallest slot.
         """
-        def make():
-            seen, out = set(), []
-            for i in range(len(self.pd)):
-                for s in range(4):
-                    if (i, s) in seen:
-                        continue
-                    cyc, h = [], (i, s)
-                    while h not in seen:
-                        seen.add(h)
-                        cyc.append(h)
-                        j, t = self.twin(h)
-                        h = (j, (t + 1) % 4)
-                    out.append(tuple(cyc))
-            return tuple(out)
-        return self._get("faces", make)
+        return self._get("faces", lambda: trace_faces(self.pd, self._slots_of))
 
     # ------------------------------------------------------------------ operations
     def mirror(self) -> "Diagram":
         """The mirror image (every crossing changed), same labels and orientation."""
-        new = []
-        for (a, b, c, d), s in zip(self.pd, self.signs):
-            new.append((d, a, b, c) if s > 0 else (b, c, d, a))
+        return self.change_crossings(range(len(self.pd)))
+
+    def change_crossings(self, indices: Iterable[int]) -> "Diagram":
+        """The diagram with the crossings ``indices`` switched (over and under exchanged),
+        labels and orientation kept: the under-strand a -> c becomes the over-strand, so
+        the tuple is rotated to start at the new incoming under-strand."""
+        new = list(self.pd)
+        signs = self.signs
+        for i in set(indices):
+            a, b, c, d = new[i]
+            new[i] = (d, a, b, c) if signs[i] > 0 else (b, c, d, a)
         return Diagram.from_pd(new, free_loops=self.free_loops)
 
     def relabel(self) -> "Diagram":

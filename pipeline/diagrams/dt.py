@@ -30,6 +30,7 @@ from __future__ import annotations
 from typing import Sequence
 
 from .diagram import Diagram
+from .plane import trace_faces
 from ..errors import NotationError
 
 __all__ = ["diagram", "MAX_DT_CROSSINGS", "MIRROR_BY_CONVENTION"]
@@ -80,24 +81,7 @@ def _slots(code: Sequence[int], bits: int) -> list[list[int]]:
 
 
 def _face_count(slots: list[list[int]]) -> int:
-    where: dict[int, list[tuple[int, int]]] = {}
-    for i, row in enumerate(slots):
-        for s, v in enumerate(row):
-            where.setdefault(v, []).append((i, s))
-    seen = set()
-    faces = 0
-    for i in range(len(slots)):
-        for s in range(4):
-            if (i, s) in seen:
-                continue
-            faces += 1
-            h = (i, s)
-            while h not in seen:
-                seen.add(h)
-                a, b = where[slots[h[0]][h[1]]]
-                j, t = b if a == h else a
-                h = (j, (t + 1) % 4)
-    return faces
+    return len(trace_faces(slots))
 
 
 def diagram(code: Sequence[int]) -> Diagram:

@@ -19,13 +19,14 @@ from __future__ import annotations
 
 import json
 import re
+from dataclasses import dataclass
 from fractions import Fraction
 from typing import Callable
 
 from .diagram import Diagram
 from ..errors import DiagramError, NotationError
 
-__all__ = ["parse", "format_pd", "KINDS", "split_notation"]
+__all__ = ["parse", "parse_notation", "Notation", "format_pd", "KINDS", "split_notation"]
 
 MAX_CROSSINGS = 100_000  # refuse absurd parameters before building anything
 
@@ -63,7 +64,7 @@ def _fraction(kind: str, tok: str) -> Fraction:
     return Fraction(num, den)
 
 
-def _parse_pd(args: str) -> Diagram:
+def _read_pd(args: str) -> tuple:
     m = re.fullmatch(r"\s*(.*?)\s*(?:loops\s*=\s*(\S+))?\s*", args, re.S)
     body, loops = m.group(1), m.group(2)
     try:
@@ -78,76 +79,156 @@ def _parse_pd(args: str) -> Diagram:
             raise NotationError(f"pd: loops={loops!r} is not a non-negative integer")
         free = int(loops)
     _check_size("pd", len(data))
-    return Diagram.from_pd(data, free_loops=free)
+    return (_frozen(data), free)
 
 
-def _parse_braid(args: str) -> Diagram:
-    from .families import braid
+def _frozen(data: list):
+    """A code of flat crossing lists as tuples (so a Notation is hashable); anything
+    malformed is kept as read, for :meth:`Diagram.from_pd` to name the fault."""
+    if all(isinstance(x, list) and not any(isinstance(v, list) for v in x) for x in data):
+        return tuple(tuple(x) for x in data)
+    return data
+
+
+def _read_braid(args: str) -> tuple:
     word = _ints("braid", args, allow_empty=False)
     _check_size("braid", len(word))
-    return braid.diagram(word)
+    return tuple(word)
 
 
-def _parse_torus(args: str) -> Diagram:
-    from .families import torus
+def _read_torus(args: str) -> tuple:
     vals = _ints("torus", args)
     if len(vals) != 2:
         raise NotationError(f"torus: expected two parameters p,q, got {len(vals)}")
     p, q = vals
     _check_size("torus", abs(q) * max(abs(p) - 1, 0))
-    return torus.diagram(p, q)
+    return (p, q)
 
 
-def _parse_pretzel(args: str) -> Diagram:
-    from .families import pretzel
+def _read_pretzel(args: str) -> tuple:
     vals = _ints("pretzel", args)
     _check_size("pretzel", sum(map(abs, vals)))
-    return pretzel.diagram(vals)
+    return tuple(vals)
 
 
-def _parse_rational(args: str) -> Diagram:
+def _read_rational(args: str) -> tuple:
     from .families import two_bridge
     m = re.fullmatch(r"\s*([+-]?\d+)\s*/\s*([+-]?\d+)\s*", args)
     if not m:
         raise NotationError(f"rational: {args.strip()!r} is not of the form α/β")
     alpha, beta = int(m.group(1)), int(m.group(2))
     _check_size("rational", sum(map(abs, two_bridge.continued_fraction(alpha, beta))))
-    return two_bridge.diagram(alpha, beta)
+    return (alpha, beta)
 
 
-def _parse_conway(args: str) -> Diagram:
-    from .families import two_bridge
+def _read_conway(args: str) -> tuple:
     terms = _ints("conway", args)
     _check_size("conway", sum(map(abs, terms)))
-    return two_bridge.conway_diagram(terms)
+    return tuple(terms)
 
 
-def _parse_montesinos(args: str) -> Diagram:
-    from .families import montesinos, two_bridge
+def _read_montesinos(args: str) -> tuple:
+    from .families import two_bridge
     if not args.strip():
         raise NotationError("montesinos: no tangles given")
     fr = [_fraction("montesinos", tok) for tok in args.split(",")]
     _check_size("montesinos", sum(sum(map(abs, two_bridge.continued_fraction(f.numerator, f.denominator))) for f in fr))
-    return montesinos.diagram(fr)
+    return tuple(fr)
 
 
-def _parse_dt(args: str) -> Diagram:
-    from . import dt
+def _read_dt(args: str) -> tuple:
     code = _ints("dt", args)
     _check_size("dt", len(code))
-    return dt.diagram(code)
+    return tuple(code)
+
+
+def _build(kind: str, args: tuple) -> Diagram:
+    from . import dt
+    from .families import braid, montesinos, pretzel, torus, two_bridge
+    if kind == "pd":
+        data, free = args
+        return Diagram.from_pd(data, free_loops=free)
+    if kind == "dt":
+        return dt.diagram(list(args))
+    if kind == "braid":
+        return braid.diagram(list(args))
+    if kind == "torus":
+        return torus.diagram(*args)
+    if kind == "pretzel":
+        return pretzel.diagram(list(args))
+    if kind == "rational":
+        return two_bridge.diagram(*args)
+    if kind == "conway":
+        return two_bridge.conway_diagram(list(args))
+    return montesinos.diagram(list(args))
+
+
+_READERS: dict[str, Callable[[str], tuple]] = {
+    "pd": _read_pd,
+    "dt": _read_dt,
+    "braid": _read_braid,
+    "torus": _read_torus,
+    "pretzel": _read_pretzel,
+    "rational": _read_rational,
+    "conway": _read_conway,
+    "montesinos": _read_montesinos,
+}
+
+
+@dataclass(frozen=True)
+class Notation:
+    """A parsed diagram string: its kind and its arguments as numbers.
+
+    ``args`` by kind: ``pd`` (crossings as tuples, free loops); ``dt``, ``braid``,
+    ``pretzel``, ``conway``: the integers; ``torus``: (p, q); ``rational``: (α, β);
+    ``montesinos``: the tangle fractions β_i/α_i (:class:`~fractions.Fraction`).
+    Build one with :func:`parse_notation`; :meth:`diagram` realises it.
+
+    Examples
+    --------
+    >>> parse_notation("montesinos:1/3, -2").args
+    (Fraction(1, 3), Fraction(-2, 1))
+    >>> parse_notation("torus:2,3").diagram().writhe
+    3
+    """
+
+    kind: str
+    args: tuple
+
+    def diagram(self) -> Diagram:
+        """The :class:`Diagram` this notation describes (``parse(text)`` is
+        ``parse_notation(text).diagram()``).
+
+        Raises
+        ------
+        NotationError
+            When the arguments have no diagram (e.g. a PD code that is not planar).
+        """
+        return _translating(self.kind, _text_of(self), lambda: _build(self.kind, self.args))
+
+
+def _text_of(n: Notation) -> str:
+    if n.kind == "pd":
+        return json.dumps([list(x) if isinstance(x, tuple) else x for x in n.args[0]])
+    if n.kind == "rational":
+        return f"{n.args[0]}/{n.args[1]}"
+    return ",".join(map(str, n.args))
+
+
+def _translating(kind: str, shown: str, make: Callable):
+    """Run ``make`` and turn a stray exception into a one-line NotationError."""
+    try:
+        return make()
+    except NotationError:
+        raise
+    except RecursionError as err:
+        raise NotationError(f"{kind}: input nested too deeply") from err
+    except (ValueError, TypeError, OverflowError, KeyError, IndexError) as err:
+        raise NotationError(f"{kind}: could not read {shown.strip()[:40]!r} ({err})") from err
 
 
 KINDS: dict[str, Callable[[str], Diagram]] = {
-    "pd": _parse_pd,
-    "dt": _parse_dt,
-    "braid": _parse_braid,
-    "torus": _parse_torus,
-    "pretzel": _parse_pretzel,
-    "rational": _parse_rational,
-    "conway": _parse_conway,
-    "montesinos": _parse_montesinos,
-}
+    kind: (lambda args, kind=kind: _build(kind, _READERS[kind](args))) for kind in _READERS}
 
 
 def split_notation(text: str) -> tuple[str, str]:
@@ -161,6 +242,21 @@ def split_notation(text: str) -> tuple[str, str]:
     if kind not in KINDS:
         raise NotationError(f"diagram: unknown kind {kind!r} (one of {', '.join(KINDS)})")
     return kind, args
+
+
+def parse_notation(text: str) -> Notation:
+    """Read a diagram string ``KIND:ARGS`` into a typed :class:`Notation` (no diagram built).
+
+    Every size and syntax check of :func:`parse` happens here, so the tangle routes and
+    the normal forms can use the numbers without building the diagram.
+
+    Raises
+    ------
+    NotationError
+        With a one-line reason naming the offending token; never anything else.
+    """
+    kind, args = split_notation(text)
+    return Notation(kind, _translating(kind, args, lambda: _READERS[kind](args)))
 
 
 def parse(text: str) -> Diagram:
@@ -177,14 +273,7 @@ def parse(text: str) -> Diagram:
     3
     """
     kind, args = split_notation(text)
-    try:
-        return KINDS[kind](args)
-    except NotationError:
-        raise
-    except RecursionError as err:
-        raise NotationError(f"{kind}: input nested too deeply") from err
-    except (ValueError, TypeError, OverflowError, KeyError, IndexError) as err:
-        raise NotationError(f"{kind}: could not read {args.strip()[:40]!r} ({err})") from err
+    return _translating(kind, args, lambda: _build(kind, _READERS[kind](args)))
 
 
 def format_pd(diagram: Diagram) -> str:

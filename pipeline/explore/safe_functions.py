@@ -13,6 +13,7 @@ from math import gcd, isqrt, lcm, prod
 from typing import Any, Callable
 
 from ..errors import ClaimError
+from ..numbers import is_prime
 
 __all__ = ["Null", "FUNCTIONS", "ROW_FUNCTIONS", "as_number", "as_integer", "normalise"]
 
@@ -49,8 +50,7 @@ def _seq(args: tuple) -> tuple:
 
 
 def _is_prime(n: Any) -> bool:
-    from sympy import isprime
-    return bool(isprime(as_integer(n, "is_prime")))
+    return is_prime(as_integer(n, "is_prime"))
 
 
 def _divides(a: Any, b: Any) -> bool:

@@ -35,30 +35,36 @@ from __future__ import annotations
 import json
 import re
 from fractions import Fraction
-from typing import Any, Optional
+from typing import Any, Optional, Sequence
 
 from ..diagrams.canonical import canonical_text, diagram_id
 from ..diagrams.diagram import Diagram
+from ..diagrams.notation import parse_notation, split_notation
 from ..errors import KnotLedgerError
+from ..invariants.row import InvariantValues
 from .fingerprint import (_factors, _invert, _poly, fingerprint, jones_orientation_set,
                           mirror_fingerprint)
 from .normal_forms import (CN_ALT, NormalForm, montesinos_nf, pretzel_nf, torus_nf, two_bridge_nf)
 
 __all__ = ["canonical_text", "diagram_id", "knot_key", "fingerprint", "build_knots_table",
-           "mark_duplicates", "normal_form", "is_reduced", "jones_orientation_set", "KeyConflictError"]
+           "mark_duplicates", "duplicate_of", "normal_form", "is_reduced", "jones_orientation_set", "KeyConflictError"]
 
 class KeyConflictError(KnotLedgerError):
     """Two rows under one knot key have different invariants (a bug somewhere)."""
 
 
 # ---------------------------------------------------------------------- normal forms
-def _ints(text: str) -> list[int]:
-    return [int(t) for t in re.split(r"[,\s]+", text.strip()) if t]
+#: notation kinds with a normal form (a braid word only in the torus form)
+_NF_KINDS = ("torus", "rational", "conway", "pretzel", "montesinos", "braid")
 
 
 def normal_form(row: dict) -> Optional[NormalForm]:
-    """The normal form of a row from its notation (or family parameters); None if none applies."""
-    from ..diagrams.notation import split_notation
+    """The normal form of a row from its notation (or family parameters); None if none applies.
+
+    The notation is read by :func:`pipeline.diagrams.notation.parse_notation` (the
+    parser's numbers, no second reading of the string); a notation that does not parse
+    has no normal form.
+    """
     from ..diagrams.families.two_bridge import fraction_of
     notation = row.get("notation")
     try:
@@ -66,24 +72,24 @@ def normal_form(row: dict) -> Optional[NormalForm]:
             kind, args = split_notation(notation)
         else:
             kind, args = _from_params(row)
+        if kind not in _NF_KINDS:
+            return None
+        n = parse_notation(f"{kind}:{args}") if not notation else parse_notation(notation)
+        vals = list(n.args)
         if kind == "torus":
-            p, q = _ints(args)
-            return torus_nf(p, q)
+            return torus_nf(*vals)
         if kind == "rational":
-            a, b = args.split("/")
-            return two_bridge_nf(int(a), int(b))
+            return two_bridge_nf(*vals)
         if kind == "conway":
-            f = fraction_of(_ints(args))
+            f = fraction_of(vals)
             return None if f is None else two_bridge_nf(f.numerator, f.denominator)
         if kind == "pretzel":
-            return pretzel_nf(_ints(args))
+            return pretzel_nf(vals)
         if kind == "montesinos":
-            return montesinos_nf([Fraction(t.strip().replace(" ", "")) for t in args.split(",")])
-        if kind == "braid":
-            return _torus_braid(_ints(args))
+            return montesinos_nf(vals)
+        return _torus_braid(vals)
     except (ValueError, ZeroDivisionError, KnotLedgerError):
         return None
-    return None
 
 
 def _from_params(row: dict) -> tuple[str, str]:
@@ -191,11 +197,12 @@ def knot_key(row: dict) -> dict:
         return out
     mfp = mirror_fingerprint(row)
     amph, reason = None, "unknown: invariants do not decide"
-    if row.get("components") == 1:
-        j = _poly(row.get("jones"))
-        if j is not None and j != _invert(j):
+    values = InvariantValues.from_record(row)
+    if values.components == 1:
+        j = values.jones
+        if j is not None and j != j.invert():
             amph, reason = False, "chiral (jones): V(t) != V(1/t)"
-        elif row.get("signature") not in (None, 0):
+        elif values.signature not in (None, 0):
             amph, reason = False, "chiral (signature): signature != 0"
     elif fp.startswith("fp:") and mfp != fp:
         amph, reason = False, "chiral (jones): the sets of Jones polynomials over orientations differ"
@@ -205,18 +212,32 @@ def knot_key(row: dict) -> dict:
 
 
 # ---------------------------------------------------------------------- tables
+def duplicate_of(row_ids: Sequence[int], diagram_ids: Sequence[Optional[str]]) -> list[Optional[int]]:
+    """The ``duplicate_of`` column: for each row, the smallest row_id with the same
+    ``diagram_id`` when that is smaller than its own, else None (also for no diagram_id).
+
+    The one Python implementation, used for lists of rows (:func:`mark_duplicates`) and
+    for census frames read back (:mod:`pipeline.census.reader`); the SQL views of
+    :mod:`pipeline.explore.query` compute the same column in SQL.
+
+    Examples
+    --------
+    >>> duplicate_of([1, 2, 3], ["x", "y", "x"])
+    [None, None, 1]
+    """
+    first: dict = {}
+    get = first.get
+    for r, d in zip(row_ids, diagram_ids):
+        f = get(d)
+        if f is None or r < f:
+            first[d] = r                    # (a None key is collected too, and never read)
+    return [None if d is None or (f := first[d]) >= r else f for r, d in zip(row_ids, diagram_ids)]
+
+
 def mark_duplicates(rows: list[dict]) -> list[Optional[int]]:
     """For each row, the row_id of the first row (smallest row_id) with the same
     ``diagram_id``, or None if it is that first row (or has no diagram_id)."""
-    first: dict[str, int] = {}
-    for r in sorted(rows, key=lambda r: r["row_id"]):
-        if r.get("diagram_id") is not None:
-            first.setdefault(r["diagram_id"], r["row_id"])
-    out = []
-    for r in rows:
-        f = first.get(r.get("diagram_id")) if r.get("diagram_id") is not None else None
-        out.append(None if f is None or f == r["row_id"] else f)
-    return out
+    return duplicate_of([r["row_id"] for r in rows], [r.get("diagram_id") for r in rows])
 
 
 _ALWAYS = ("components", "determinant", "invariant_factors")

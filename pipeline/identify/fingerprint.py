@@ -20,32 +20,25 @@ from __future__ import annotations
 
 import hashlib
 import json
-from itertools import combinations
 from typing import Any, Optional
 
 from ..diagrams.diagram import Diagram
+from ..invariants.linking import reversal_linkings
 from ..invariants.poly import Laurent
+from ..invariants.row import InvariantValues, _factor_tuple, _laurent
 
 __all__ = ["fingerprint", "mirror_fingerprint", "jones_orientation_set", "MAX_ORIENTATION_COMPONENTS"]
 
 MAX_ORIENTATION_COMPONENTS = 10
 def _poly(v: Any) -> Optional[list]:
     """A polynomial in README.md JSON form, from a Laurent, a JSON list or JSON text."""
-    if v is None:
-        return None
-    if isinstance(v, Laurent):
-        return v.to_json()
-    if isinstance(v, str):
-        v = json.loads(v)
-    return Laurent.from_json(v).to_json()
+    p = _laurent(v)
+    return None if p is None else p.to_json()
 
 
 def _factors(v: Any) -> Optional[list[int]]:
-    if v is None:
-        return None
-    if isinstance(v, str):
-        v = json.loads(v)
-    return [int(x) for x in v]
+    f = _factor_tuple(v)
+    return None if f is None else list(f)
 
 
 def _invert(p: Optional[list]) -> Optional[list]:
@@ -58,44 +51,30 @@ def jones_orientation_set(diagram: Diagram, jones: Laurent) -> Optional[list[lis
     Morton's formula: reversing the sublink K multiplies V by t^{−3 lk(K, L−K)}.
     None when the diagram has more than ``MAX_ORIENTATION_COMPONENTS`` components.
     """
-    comps = diagram.components
-    c = len(comps)
-    if c > MAX_ORIENTATION_COMPONENTS:
+    if len(diagram.components) > MAX_ORIENTATION_COMPONENTS:
         return None
-    comp_of = diagram.component_of_label
-    lk2 = [[0] * c for _ in range(c)]     # 2·lk
-    for i, (a, b, _, d) in enumerate(diagram.pd):
-        x, y = comp_of[a], comp_of[b]
-        if x != y:
-            lk2[x][y] += diagram.signs[i]
-            lk2[y][x] += diagram.signs[i]
-    out = set()
-    for r in range(c + 1):
-        for sub in combinations(range(c), r):
-            rest = [j for j in range(c) if j not in sub]
-            lam = sum(lk2[i][j] for i in sub for j in rest) // 2
-            out.add(json.dumps(jones.shift(-6 * lam).to_json()))
+    # reversing K or its complement gives the same λ: the sublinks of 1..c−1 suffice
+    out = {json.dumps(jones.shift(-6 * lam).to_json()) for _, lam in reversal_linkings(diagram)}
     return sorted(json.loads(s) for s in out)
 
 
 def _fingerprint_data(row: dict, *, mirror: bool = False) -> tuple[dict, bool]:
     """(data, complete) of the fingerprint."""
-    comps = row.get("components")
-    data: dict[str, Any] = {"components": comps, "determinant": row.get("determinant"),
-                            "invariant_factors": _factors(row.get("invariant_factors"))}
-    if data["determinant"] is not None:
-        data["determinant"] = int(data["determinant"])
+    values = InvariantValues.from_record(row)      # the one reading of a (stored) row
+    comps = values.components
+    data: dict[str, Any] = {"components": comps, "determinant": values.determinant,
+                            "invariant_factors": _factors(values.invariant_factors)}
     if comps == 1:
-        jones = _poly(row.get("jones"))
-        sig = row.get("signature")
-        data["alexander"] = _poly(row.get("alexander"))
+        jones = _poly(values.jones)
+        sig = values.signature
+        data["alexander"] = _poly(values.alexander)
         data["jones"] = _invert(jones) if mirror else jones
-        data["signature"] = None if sig is None else (-int(sig) if mirror else int(sig))
+        data["signature"] = None if sig is None else (-sig if mirror else sig)
     else:
         js = row.get("jones_orientations")
-        d, jones = row.get("diagram"), row.get("jones")
+        d, jones = row.get("diagram"), values.jones
         if js is None and isinstance(d, Diagram) and jones is not None:
-            js = jones_orientation_set(d, jones if isinstance(jones, Laurent) else Laurent.from_json(_poly(jones)))
+            js = jones_orientation_set(d, jones)
         if js is not None and mirror:
             js = sorted(_invert(p) for p in js)
         data["jones_orientations"] = js

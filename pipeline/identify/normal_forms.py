@@ -71,6 +71,8 @@ from fractions import Fraction
 from math import gcd
 from typing import Optional, Sequence
 
+from ..numbers import UnionFind
+
 __all__ = ["NormalForm", "unknot", "unlink", "two_bridge_nf", "torus_nf", "montesinos_nf",
            "pretzel_nf", "connected_sum_nf", "split_nf", "euclid_terms"]
 
@@ -306,16 +308,8 @@ def _montesinos_components(fr: list[Fraction]) -> int:
     """
     # ends: for tangle i, NW=4i, NE=4i+1, SW=4i+2, SE=4i+3
     r = len(fr)
-    parent = list(range(4 * r))
-
-    def find(x):
-        while parent[x] != x:
-            parent[x] = parent[parent[x]]
-            x = parent[x]
-        return x
-
-    def union(a, b):
-        parent[find(a)] = find(b)
+    ends = UnionFind(range(4 * r))
+    union = ends.union
 
     for i, f in enumerate(fr):
         p, q = f.numerator % 2, f.denominator % 2
@@ -331,7 +325,7 @@ def _montesinos_components(fr: list[Fraction]) -> int:
         union(4 * i + 3, 4 * (i + 1) + 2)      # SE_i - SW_{i+1}
     union(0, 4 * (r - 1) + 1)                  # numerator closure
     union(2, 4 * (r - 1) + 3)
-    return len({find(x) for x in range(4 * r)})
+    return ends.count()
 
 
 def pretzel_nf(entries: Sequence[int]) -> NormalForm:

@@ -8,13 +8,14 @@ A budget overrun or a failure in one invariant never loses the others: the value
 from __future__ import annotations
 
 import time
-from math import isqrt
 from typing import Any, Callable, Optional
 
 from ..diagrams.diagram import Diagram
 from ..errors import BudgetExceeded
+from ..numbers import primes_upto
+from .row import CensusRow, InvariantValues
 
-__all__ = ["compute_all", "ALGORITHM_VERSIONS"]
+__all__ = ["compute_all", "compute_row", "ALGORITHM_VERSIONS"]
 
 #: Bumped whenever a change alters stored values; written into Parquet metadata.
 ALGORITHM_VERSIONS = {
@@ -46,11 +47,7 @@ def compute_all(diagram: Diagram, *, max_modulus: int = 16, jones_budget: Option
                 min_colors_budget: Optional[int] = None, notation: Optional[str] = None) -> dict:
     """Every invariant of ``diagram`` as a dict (the census row before storage).
 
-    ``notation``, when given, must be the string ``diagram`` was parsed from; for the
-    tangle families (``conway``, ``rational``, ``pretzel``, ``montesinos``) the Jones
-    polynomial is then taken from the linear-time bracket of rational tangles
-    (:mod:`pipeline.invariants.jones.tangle_bracket`), which the tests cross-check against
-    the general frontier programme.
+    The dict is :meth:`CensusRow.to_record` of :func:`compute_row` (same arguments).
 
     Keys: ``crossings``, ``components``, ``free_loops``, ``writhe``, ``alternating``,
     ``determinant``, ``invariant_factors``, ``colorings`` ({n: count}),
@@ -60,6 +57,22 @@ def compute_all(diagram: Diagram, *, max_modulus: int = 16, jones_budget: Option
     ``checks`` ({name: bool}), ``checks_failed`` (list of names), ``status``,
     ``timings`` (seconds per invariant).
     """
+    return compute_row(diagram, max_modulus=max_modulus, jones_budget=jones_budget,
+                       min_colors_budget=min_colors_budget, notation=notation).to_record()
+
+
+def compute_row(diagram: Diagram, *, max_modulus: int = 16, jones_budget: Optional[int] = None,
+                min_colors_budget: Optional[int] = None,
+                notation: "Optional[str | Notation]" = None) -> CensusRow:
+    """Every invariant of ``diagram`` as a typed :class:`~pipeline.invariants.row.CensusRow`.
+
+    ``notation``, when given, must be the string ``diagram`` was parsed from (or its
+    :class:`~pipeline.diagrams.notation.Notation`); for the tangle families (``conway``,
+    ``rational``, ``pretzel``, ``montesinos``) the Jones polynomial is then taken from
+    the linear-time bracket of rational tangles
+    (:mod:`pipeline.invariants.jones.tangle_bracket`), which the tests cross-check
+    against the general frontier programme.
+    """
     from . import bounds, checks, chirality, signature
     from .alexander import fox as alexander
     from .coloring import spectrum as coloring
@@ -67,13 +80,6 @@ def compute_all(diagram: Diagram, *, max_modulus: int = 16, jones_budget: Option
 
     problems: list[str] = []
     timings: dict[str, float] = {}
-    row: dict[str, Any] = {
-        "crossings": diagram.n_crossings,
-        "components": diagram.n_components,
-        "free_loops": diagram.free_loops,
-        "writhe": diagram.writhe,
-        "alternating": diagram.is_alternating() if diagram.n_crossings else None,
-    }
     budget = DEFAULT_MIN_COLORS_BUDGET if min_colors_budget is None else min_colors_budget
 
     def colouring_part():
@@ -81,7 +87,7 @@ def compute_all(diagram: Diagram, *, max_modulus: int = 16, jones_budget: Option
         det = coloring.determinant(diagram)
         counts = coloring.coloring_counts(diagram, max_modulus=max_modulus)
         witnesses, fewest = {}, {}
-        for p in _primes_upto(max_modulus):
+        for p in primes_upto(max_modulus):
             if det % p == 0:
                 w = coloring.witness_coloring(diagram, p)
                 if w is not None:
@@ -91,30 +97,35 @@ def compute_all(diagram: Diagram, *, max_modulus: int = 16, jones_budget: Option
                         problems.append(f"skipped: min_colors budget {budget} (p={p})")
         return {
             "determinant": det,
-            "invariant_factors": list(factors),
+            "invariant_factors": tuple(factors),
             "colorings": counts,
-            "colorable_moduli": [n for n, c in counts.items() if c > n],
+            "colorable_moduli": tuple(n for n, c in counts.items() if c > n),
             "witnesses": witnesses,
             "min_colors": fewest,
         }
 
-    part = _attempt(problems, timings, "coloring", colouring_part)
-    row.update(part or {"determinant": None, "invariant_factors": None, "colorings": None,
-                        "colorable_moduli": None, "witnesses": None, "min_colors": None})
-
-    row["alexander"] = _attempt(problems, timings, "alexander", lambda: alexander.alexander_polynomial(diagram))
-    row["conway"] = _attempt(problems, timings, "conway", lambda: alexander.conway_polynomial(diagram))
-    row["jones"] = _attempt(problems, timings, "jones", lambda: _jones(jones, diagram, notation, jones_budget))
-    row["signature"] = _attempt(problems, timings, "signature", lambda: signature.signature(diagram))
-    row["nullity"] = _attempt(problems, timings, "nullity", lambda: signature.nullity(diagram))
-    row["bounds"] = _attempt(problems, timings, "bounds", lambda: bounds.all_bounds(diagram, row))
-    verdict = _attempt(problems, timings, "chirality", lambda: chirality.chirality(diagram, row))
-    row["chirality"], row["chirality_reason"] = verdict or ("unknown", "not computed")
-    row["checks"] = _attempt(problems, timings, "checks", lambda: checks.run_checks(diagram, row)) or {}
-    row["checks_failed"] = sorted(k for k, ok in row["checks"].items() if not ok)
-    row["status"] = "; ".join(problems) if problems else "ok"
-    row["timings"] = timings
-    return row
+    colour = _attempt(problems, timings, "coloring", colouring_part) or {}
+    alex = _attempt(problems, timings, "alexander", lambda: alexander.alexander_polynomial(diagram))
+    conway = _attempt(problems, timings, "conway", lambda: alexander.conway_polynomial(diagram))
+    jones_poly = _attempt(problems, timings, "jones", lambda: _jones(jones, diagram, notation, jones_budget))
+    sig = _attempt(problems, timings, "signature", lambda: signature.signature(diagram))
+    null = _attempt(problems, timings, "nullity", lambda: signature.nullity(diagram))
+    values = InvariantValues(components=diagram.n_components, determinant=colour.get("determinant"),
+                             invariant_factors=colour.get("invariant_factors"), alexander=alex,
+                             conway=conway, jones=jones_poly, signature=sig, nullity=null)
+    found_bounds = _attempt(problems, timings, "bounds", lambda: bounds.all_bounds(diagram, values))
+    verdict = _attempt(problems, timings, "chirality",
+                       lambda: chirality.chirality(diagram, jones=jones_poly, signature=sig))
+    found_checks = _attempt(problems, timings, "checks", lambda: checks.run_checks(diagram, values)) or {}
+    chir, reason = verdict or ("unknown", "not computed")
+    return CensusRow(
+        crossings=diagram.n_crossings, components=diagram.n_components,
+        free_loops=diagram.free_loops, writhe=diagram.writhe,
+        alternating=diagram.is_alternating() if diagram.n_crossings else None,
+        **colour, alexander=alex, conway=conway, jones=jones_poly, signature=sig, nullity=null,
+        bounds=found_bounds, chirality=chir, chirality_reason=reason, checks=found_checks,
+        checks_failed=tuple(sorted(k for k, ok in found_checks.items() if not ok)),
+        status="; ".join(problems) if problems else "ok", timings=timings)
 
 
 def _jones(jones, diagram: Diagram, notation: Optional[str], budget: Optional[int]):
@@ -126,6 +137,3 @@ def _jones(jones, diagram: Diagram, notation: Optional[str], budget: Optional[in
             return jones.jones_from_bracket(bracket, diagram.writhe)
     return jones.jones_polynomial(diagram, budget=budget)
 
-
-def _primes_upto(n: int) -> list[int]:
-    return [p for p in range(2, n + 1) if all(p % q for q in range(2, isqrt(p) + 1))]

@@ -39,10 +39,12 @@ References
 from __future__ import annotations
 
 from math import ceil, isqrt
-from typing import Any, Optional, Sequence
+from typing import Any, Mapping, Optional, Sequence
 
 from ..diagrams.diagram import Diagram
+from .linking import linking_numbers
 from .poly import Laurent
+from .row import InvariantValues
 
 __all__ = [
     "nugatory_crossings",
@@ -123,29 +125,6 @@ def arf_invariant(determinant: int) -> Optional[int]:
     return 0 if determinant % 8 in (1, 7) else 1
 
 
-def linking_numbers(diagram: Diagram) -> dict[tuple[int, int], int]:
-    """Linking numbers of pairs of components (indices into ``diagram.components``).
-
-    lk(K_i, K_j) = ½ Σ sign(c) over the crossings between K_i and K_j (i < j);
-    every pair is listed, free loops are not (they link nothing).  Depends on the
-    orientation of the components.
-
-    Examples
-    --------
-    >>> from pipeline.diagrams.notation import parse
-    >>> linking_numbers(parse("torus:2,4"))
-    {(0, 1): 2}
-    """
-    comp = diagram.component_of_label
-    k = len(diagram.components)
-    total = {(i, j): 0 for i in range(k) for j in range(i + 1, k)}
-    for x, s in zip(diagram.pd, diagram.signs):
-        a, b = comp[x[0]], comp[x[1]]
-        if a != b:
-            total[(min(a, b), max(a, b))] += s
-    return {key: v // 2 for key, v in total.items()}
-
-
 def genus_lower_bound(alexander: Laurent, components: int = 1) -> int:
     """Seifert genus bound from the Conway-normalised Alexander polynomial.
 
@@ -192,7 +171,7 @@ def bridge_lower_bound(invariant_factors: Sequence[int]) -> int:
     return _nonunit(invariant_factors) + 1
 
 
-def all_bounds(diagram: Diagram, values: dict[str, Any]) -> dict[str, Any]:
+def all_bounds(diagram: Diagram, values: "InvariantValues | Mapping[str, Any]") -> dict[str, Any]:
     """Every fact and bound above that the available values allow (census row part).
 
     Keys: ``alternating``, ``reduced``, ``nugatory``, ``crossing_number``,
@@ -200,9 +179,13 @@ def all_bounds(diagram: Diagram, values: dict[str, Any]) -> dict[str, Any]:
     (links; JSON-friendly ``{"i-j": lk}``), ``arf`` (knots), ``genus_lower_bound``,
     ``four_genus_lower_bound`` (knots), ``slice_obstructed`` (knots),
     ``unknotting_lower_bound`` (knots), ``bridge_lower_bound``.
+
+    ``values`` is an :class:`~pipeline.invariants.row.InvariantValues` (a mapping is read
+    through :meth:`~pipeline.invariants.row.InvariantValues.from_record`).
     """
+    values = InvariantValues.coerce(values)
     out: dict[str, Any] = {}
-    c = values.get("components", diagram.n_components)
+    c = diagram.n_components if values.components is None else values.components
     out["alternating"] = diagram.is_alternating()
     nug = nugatory_crossings(diagram)
     out["reduced"] = not nug
@@ -210,10 +193,8 @@ def all_bounds(diagram: Diagram, values: dict[str, Any]) -> dict[str, Any]:
     out["crossing_number"], out["crossing_number_certified"] = crossing_number_bound(diagram)
     if c > 1:
         out["linking_numbers"] = {f"{i}-{j}": v for (i, j), v in linking_numbers(diagram).items()}
-    det = values.get("determinant")
-    factors = values.get("invariant_factors")
-    alex = values.get("alexander")
-    sig = values.get("signature")
+    det, factors = values.determinant, values.invariant_factors
+    alex, sig = values.alexander, values.signature
     if c == 1 and det is not None:
         out["arf"] = arf_invariant(det)
         out["slice_obstructed"] = slice_obstructed(det)

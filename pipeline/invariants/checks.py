@@ -73,13 +73,15 @@ from __future__ import annotations
 
 from fractions import Fraction
 from math import prod
-from typing import Any, Optional
+from typing import Any, Mapping
 
 from flint import fmpz_poly
 
 from ..diagrams.diagram import Diagram
 from .poly import Laurent
 from . import bounds
+from .linking import linking_numbers
+from .row import InvariantValues
 
 __all__ = ["run_checks", "evaluate_at_root", "CHECK_NAMES"]
 
@@ -118,19 +120,6 @@ def _gaussian(p: Laurent) -> tuple[int, int]:
     return cs[0], cs[1]
 
 
-def _conway_at(conway: Laurent, re: int, im: int) -> tuple[int, int]:
-    """∇(z) at the Gaussian integer z = re + i·im (∇ stores z^k with doubled exponent 2k)."""
-    out = (0, 0)
-    for j, c in conway.terms:
-        if j % 2 or j < 0:
-            raise ValueError("a Conway polynomial has nonnegative integer exponents")
-        w = (1, 0)
-        for _ in range(j // 2):
-            w = (w[0] * re - w[1] * im, w[0] * im + w[1] * re)
-        out = (out[0] + c * w[0], out[1] + c * w[1])
-    return out
-
-
 def _i_power(e: int) -> tuple[int, int]:
     return ((1, 0), (0, 1), (-1, 0), (0, -1))[e % 4]
 
@@ -161,16 +150,18 @@ def _conway_substitute(conway: Laurent) -> Laurent:
 
 
 # ---------------------------------------------------------------- the checks
-def run_checks(diagram: Diagram, values: dict[str, Any]) -> dict[str, bool]:
+def run_checks(diagram: Diagram, values: "InvariantValues | Mapping[str, Any]") -> dict[str, bool]:
     """Evaluate every applicable relation (module table) on one row of values.
 
     Parameters
     ----------
     diagram : Diagram
-    values : dict
+    values : InvariantValues (or a mapping, read by ``InvariantValues.from_record``)
         Whatever was computed: ``determinant``, ``invariant_factors``, ``alexander``,
         ``conway``, ``jones`` (Laurent or None when skipped), ``signature``,
-        ``nullity``, ``components``.  Missing or None values omit their checks.
+        ``nullity``, ``components``.  None values omit their checks; the Goeritz
+        determinant check needs the signature too (the Goeritz matrix is the
+        signature's input: when the signature could not be computed, neither could it).
 
     Returns
     -------
@@ -185,18 +176,15 @@ def run_checks(diagram: Diagram, values: dict[str, Any]) -> dict[str, bool]:
     >>> run_checks(parse("torus:2,3"), {"jones": v, "determinant": 3})["jones_det"]
     True
     """
+    values = InvariantValues.coerce(values)
     out: dict[str, bool] = {}
-    c = values.get("components")
+    c = values.components
     c = diagram.n_components if c is None else c
     knot = c == 1
     n = diagram.n_crossings
-    det: Optional[int] = values.get("determinant")
-    factors = values.get("invariant_factors")
-    alex: Optional[Laurent] = values.get("alexander")
-    conway: Optional[Laurent] = values.get("conway")
-    jones: Optional[Laurent] = values.get("jones")
-    sig: Optional[int] = values.get("signature")
-    null: Optional[int] = values.get("nullity")
+    det, factors = values.determinant, values.invariant_factors
+    alex, conway, jones = values.alexander, values.conway, values.jones
+    sig, null = values.signature, values.nullity
 
     if det is not None and factors is not None:
         out["determinant_product"] = det == prod(factors)
@@ -236,7 +224,7 @@ def run_checks(diagram: Diagram, values: dict[str, Any]) -> dict[str, bool]:
         if knot:
             out["jones_derivative"] = d1 == 0
         else:
-            lam = sum(bounds.linking_numbers(diagram).values())
+            lam = sum(linking_numbers(diagram).values())
             out["jones_derivative"] = d1 == Fraction(-3 * lam) * Fraction(-2) ** (c - 2)
         if knot:
             a2 = None
@@ -267,7 +255,7 @@ def run_checks(diagram: Diagram, values: dict[str, Any]) -> dict[str, bool]:
             out["signature_parity"] = (sig + null - (c - 1)) % 2 == 0
     if null is not None and factors is not None:
         out["nullity_zero_factors"] = null == sum(1 for f in factors if f == 0)
-    if det is not None and ("signature" not in values or sig is not None):
+    if det is not None and sig is not None:
         from .signature import goeritz_determinant
         out["goeritz_det"] = abs(goeritz_determinant(diagram)) == det
     return dict(sorted(out.items()))

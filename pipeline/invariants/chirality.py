@@ -30,10 +30,10 @@ References
 
 from __future__ import annotations
 
-from itertools import combinations
-from typing import Any, Iterable, Optional
+from typing import Iterable, Optional
 
 from ..diagrams.diagram import Diagram
+from .linking import reversal_linkings
 from .poly import Laurent
 
 __all__ = ["chirality", "reverse_components", "orientation_values"]
@@ -102,23 +102,11 @@ def orientation_values(diagram: Diagram, *, jones: Optional[Laurent] = None,
 
     ``jones`` and ``signature`` are this diagram's values (None: not used).
     """
-    comps = diagram.components
-    k = len(comps)
-    comp_of = diagram.component_of_label
-    lk2 = [[0] * k for _ in range(k)]     # 2·lk between components
-    for i, x in enumerate(diagram.pd):
-        u, w = comp_of[x[0]], comp_of[x[1]]
-        if u != w:
-            lk2[u][w] += diagram.signs[i]
-            lk2[w][u] += diagram.signs[i]
     out = set()
-    for r in range(k):
-        for subset in combinations(range(1, k), r):
-            rest = [j for j in range(k) if j not in subset]
-            lam = sum(lk2[i][j] for i in subset for j in rest) // 2
-            v = None if jones is None else jones.shift(-6 * lam)
-            sg = None if signature is None else signature + 2 * lam
-            out.add((v, sg))
+    for _, lam in reversal_linkings(diagram):
+        v = None if jones is None else jones.shift(-6 * lam)
+        sg = None if signature is None else signature + 2 * lam
+        out.add((v, sg))
     return out
 
 
@@ -126,16 +114,17 @@ def _mirror_values(values: set[tuple]) -> set[tuple]:
     return {(v.invert() if v is not None else None, -s if s is not None else None) for v, s in values}
 
 
-def chirality(diagram: Diagram, values: dict[str, Any]) -> tuple[str, str]:
+def chirality(diagram: Diagram, *, jones: Optional[Laurent], signature: Optional[int]) -> tuple[str, str]:
     """Chirality verdict and its reason, from Jones and signature.
 
     Parameters
     ----------
     diagram : Diagram
-    values : dict
-        Already computed values: ``jones`` (Laurent or None when skipped) and
-        ``signature`` (int or None).  For links the other orientations' values follow
-        from these and the linking numbers (:func:`orientation_values`).
+    jones : Laurent or None
+        This diagram's Jones polynomial (None when skipped).
+    signature : int or None
+        Its signature (None when not computed).  For links the other orientations'
+        values follow from these and the linking numbers (:func:`orientation_values`).
 
     Returns
     -------
@@ -145,11 +134,10 @@ def chirality(diagram: Diagram, values: dict[str, Any]) -> tuple[str, str]:
     Examples
     --------
     >>> from pipeline.diagrams.notation import parse
-    >>> chirality(parse("torus:2,3"), {"jones": None, "signature": -2})[0]
+    >>> chirality(parse("torus:2,3"), jones=None, signature=-2)[0]
     'chiral (signature)'
     """
-    v: Optional[Laurent] = values.get("jones")
-    s: Optional[int] = values.get("signature")
+    v, s = jones, signature
     if len(diagram.components) <= 1:  # a knot (free loops only: the unknot/unlink family)
         if diagram.free_loops and diagram.components:
             return _link_verdict(diagram, v, s)

@@ -27,6 +27,7 @@ from typing import Any
 from . import plots as rp
 from ..census.reader import Census, exact_int, open_census
 from ..errors import QueryError
+from ..numbers import primes_upto
 
 __all__ = ["build_report", "diagram_pictures", "render_markdown", "render_html", "add_arguments", "main"]
 
@@ -36,10 +37,6 @@ MAX_LISTED = 20
 def _plain(v: Any) -> Any:
     from ..explore.claims import _plain as plain
     return plain(v)
-
-
-def _primes_upto(n: int) -> list[int]:
-    return [p for p in range(2, n + 1) if all(p % d for d in range(2, int(p ** 0.5) + 1))]
 
 
 def _dets(df) -> list:
@@ -95,7 +92,7 @@ def _colourability(c: Census, blocks: list, plots: Path) -> None:
     link_fewest: dict = defaultdict(Counter)
     size = Counter(fam_of.values())
     max_mod = int(col["modulus"].max()) if len(col) else 0
-    primes = _primes_upto(max_mod)
+    primes = primes_upto(max_mod)
     hits: dict = defaultdict(Counter)
     fewest: dict = defaultdict(Counter)
     if len(col):

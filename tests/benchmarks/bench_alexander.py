@@ -21,8 +21,8 @@ sys.path.insert(0, str(Path(__file__).resolve().parents[2]))
 
 from pipeline import parse  # noqa: E402
 from pipeline.diagrams.diagram import Diagram  # noqa: E402
-from pipeline.invariants.alexander.fox.fox import _signed_delta, alexander_polynomial  # noqa: E402
-from pipeline.invariants.alexander.fox.matrix import _bareiss, alexander_rows, det_up_to_units  # noqa: E402
+from pipeline.invariants.alexander.fox import _signed_delta, alexander_polynomial  # noqa: E402
+from pipeline.invariants.alexander.matrix import _bareiss, alexander_rows, det_up_to_units  # noqa: E402
 from _bench import best_time, fit_exponent
 
 SIZES = [25, 50, 100, 200, 400]

@@ -30,7 +30,7 @@ from pathlib import Path
 ROOT = Path(__file__).resolve().parents[2]
 sys.path.insert(0, str(ROOT))
 
-from pipeline.invariants import coloring  # noqa: E402
+from pipeline.invariants.coloring import spectrum as coloring  # noqa: E402
 from pipeline.diagrams.notation import parse  # noqa: E402
 
 SIZES = (100, 200, 400, 800, 1600)

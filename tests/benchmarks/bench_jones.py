@@ -24,8 +24,8 @@ import flint
 
 from fractions import Fraction
 
-from pipeline.invariants.jones.frontier.tangle_bracket import montesinos_bracket, two_bridge_bracket
-from pipeline.invariants.jones.frontier.frontier import frontier_width, jones_from_bracket, jones_polynomial
+from pipeline.invariants.jones.tangle_bracket import montesinos_bracket, two_bridge_bracket
+from pipeline.invariants.jones.frontier import frontier_width, jones_from_bracket, jones_polynomial
 from pipeline.diagrams.notation import parse
 
 sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), ".."))

@@ -42,6 +42,8 @@ from flint import fmpz_mat, fmpz_poly
 
 from ...diagrams.diagram import Diagram
 from ...errors import KnotLedgerError
+from ...numbers import UnionFind
+from ..linking import linking_matrix
 from ..poly import Laurent
 from .matrix import alexander_minor_det
 
@@ -198,16 +200,9 @@ def _lowest_conway_coefficient(delta: Laurent, mu: int) -> int:
 
 def _linking_cofactor(diagram: Diagram) -> int:
     """A (μ−1)-cofactor of the Laplacian of linking numbers (Hosokawa; Hoste)."""
-    comp = diagram.component_of_label
-    mu = len(diagram.components)
-    twice = [[0] * mu for _ in range(mu)]
-    for x, s in zip(diagram.pd, diagram.signs):
-        i, j = comp[x[0]], comp[x[1]]
-        if i != j:
-            twice[i][j] += s
-            twice[j][i] += s
-    lap = [[-twice[i][j] // 2 if i != j else sum(twice[i]) // 2 for j in range(mu)]
-           for i in range(mu - 1)]
+    lk = linking_matrix(diagram)
+    mu = len(lk)
+    lap = [[-lk[i][j] if i != j else sum(lk[i]) for j in range(mu)] for i in range(mu - 1)]
     return int(fmpz_mat([row[:mu - 1] for row in lap]).det())
 
 
@@ -239,10 +234,7 @@ def _sign_by_skein(diagram: Diagram, delta: Laurent) -> Laurent:
 
 def crossing_change(diagram: Diagram, i: int) -> Diagram:
     """The diagram with crossing ``i`` switched (labels and orientation kept)."""
-    a, b, c, d = diagram.pd[i]
-    new = list(diagram.pd)
-    new[i] = (d, a, b, c) if diagram.signs[i] > 0 else (b, c, d, a)
-    return Diagram.from_pd(new, free_loops=diagram.free_loops)
+    return diagram.change_crossings([i])
 
 
 def smoothing(diagram: Diagram, i: int) -> Diagram:
@@ -253,17 +245,10 @@ def smoothing(diagram: Diagram, i: int) -> Diagram:
     """
     pd, signs = diagram.pd, diagram.signs
     a, b, c, d = pd[i]
-    parent: dict[int, int] = {}
-
-    def find(v: int) -> int:
-        while parent.get(v, v) != v:
-            v = parent[v]
-        return v
-
+    joined = UnionFind()
+    find = joined.find
     for u, v in ((a, b), (d, c)) if signs[i] > 0 else ((a, d), (b, c)):
-        ru, rv = find(u), find(v)
-        if ru != rv:
-            parent[ru] = rv
+        joined.union(u, v)
     rest = [j for j in range(len(pd)) if j != i]
     succ: dict[int, int] = {}
     for j in rest:

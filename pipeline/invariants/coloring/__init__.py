@@ -1,7 +1,8 @@
 """Colouring invariants: colouring matrix, invariant factors, determinant, Fox colourings.
 
-:mod:`.spectrum` is the general route (the colouring matrix of any diagram and its Smith
-form); :mod:`.sparse_elimination` is the fast elimination of unit pivots that reduces the
+:mod:`.matrix` builds the colouring matrix; :mod:`.spectrum` is the general route (its
+Smith form, determinant and counts; it re-exports every public name); :mod:`.mod_p` finds
+colourings modulo a prime; :mod:`.sparse_elimination` is the fast elimination of unit pivots that reduces the
 Smith form of a family member to a small dense block for python-flint.
 """
 

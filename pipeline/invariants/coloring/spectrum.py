@@ -18,7 +18,9 @@ Definitions (README.md, contract):
 The Smith form is computed by eliminating ±1 pivots sparsely (small fill-in first by a
 Markowitz threshold sweep, :mod:`.sparse_elimination`), dividing out a common factor of
 what is left and eliminating again, and handing the small dense remainder to
-python-flint's ``fmpz_mat.snf``.  Colourings mod a prime come from the same sparse elimination over Z/p.
+python-flint's ``fmpz_mat.snf``.  The matrix itself is built in :mod:`.matrix`; colourings mod a prime
+(witnesses, fewest colours) come from the same sparse elimination over Z/p in :mod:`.mod_p`;
+both are re-exported here.
 
 References
 ----------
@@ -34,11 +36,14 @@ from __future__ import annotations
 
 from collections import Counter
 from functools import lru_cache
-from math import gcd, isqrt, lcm, prod
-from typing import Optional
+from math import gcd, lcm, prod
+
+from flint import fmpz_mat
 
 from ...diagrams.diagram import Diagram
-from .sparse_elimination import diagonalise, eliminate, eliminate_units, smith_of_diagonal
+from .matrix import _rows_and_columns, _sparse_matrix, coloring_matrix
+from .mod_p import min_colors, witness_coloring
+from .sparse_elimination import diagonalise, eliminate_units, smith_of_diagonal
 
 __all__ = [
     "coloring_matrix",
@@ -53,71 +58,9 @@ __all__ = [
 ]
 
 
-# ---------------------------------------------------------------------------- matrix
-def _sparse_matrix(diagram: Diagram) -> tuple[list[dict[int, int]], int]:
-    """Rows of the colouring matrix as {column: entry} dicts, and the column count."""
-    rows, col_rows = _rows_and_columns(diagram)
-    return rows, len(col_rows)
-
-
-def coloring_matrix(diagram: Diagram) -> list[list[int]]:
-    """The colouring matrix M of ``diagram`` as a dense list of rows.
-
-    Parameters
-    ----------
-    diagram : Diagram
-
-    Returns
-    -------
-    list of list of int
-        Row i is crossing i (PD order): 2 in the over-arc's column, −1 in the columns of
-        the incoming and outgoing under-arcs (entries add up at kinks).  Columns are the
-        arcs in ``diagram.arcs`` order, then one zero column per free loop.
-
-    Examples
-    --------
-    >>> from pipeline.diagrams.notation import parse
-    >>> coloring_matrix(parse("braid:1,1"))   # Hopf link
-    [[2, -2], [-2, 2]]
-    """
-    rows, ncols = _sparse_matrix(diagram)
-    out = []
-    for r in rows:
-        dense = [0] * ncols
-        for c, v in r.items():
-            dense[c] = v
-        out.append(dense)
-    return out
-
-
 # ---------------------------------------------------------------------------- Smith form
 #: A remainder with at most this many rows goes straight to dense ``fmpz_mat.snf``.
 DENSE_LIMIT = 24
-
-
-def _rows_and_columns(diagram: Diagram) -> tuple[list[dict[int, int]], list[set[int]]]:
-    """:func:`_sparse_matrix` rows (no zero entries, empty rows kept) and, per column,
-    the set of rows with an entry there; built in one pass over the PD code."""
-    arc = diagram.arc_of_label
-    col_rows: list[set[int]] = [set() for _ in range(len(diagram.arcs) + diagram.free_loops)]
-    rows = []
-    for i, ((a, b, c, d), sign) in enumerate(zip(diagram.pd, diagram.signs)):
-        over = arc[d if sign > 0 else b]
-        ua, uc = arc[a], arc[c]
-        if over != ua and over != uc and ua != uc:
-            rows.append({over: 2, ua: -1, uc: -1})
-            col_rows[over].add(i)
-            col_rows[ua].add(i)
-            col_rows[uc].add(i)
-            continue
-        row: dict[int, int] = {}
-        for col, v in ((over, 2), (ua, -1), (uc, -1)):  # a kink: entries add up
-            row[col] = row.get(col, 0) + v
-        row = {k: v for k, v in row.items() if v}
-        for col in row:
-            col_rows[col].add(i)
-        rows.append(row)
-    return rows, col_rows
 
 
 @lru_cache(maxsize=64)
@@ -166,8 +109,6 @@ def _smith(diagram: Diagram) -> tuple[tuple[int, ...], int, int]:
 def _dense_smith_diagonal(rest: list[dict[int, int]]) -> list[int]:
     """The nonzero diagonal entries (made positive) of the Smith form of the sparse
     rows ``rest`` (columns without entries dropped), via flint's dense ``snf``."""
-    from flint import fmpz_mat
-
     cols = sorted({c for r in rest for c in r})
     where = {c: k for k, c in enumerate(cols)}
     m = fmpz_mat(len(rest), len(cols))
@@ -275,139 +216,3 @@ def has_generating_coloring(factors: tuple[int, ...] | list[int], n: int) -> boo
     (3, 3), so no generating 9-colouring.
     """
     return lcm(1, *(gcd(n, d) for d in factors)) == n if n > 1 else True
-
-
-# ---------------------------------------------------------------------------- mod p
-def _check_prime(p: int) -> None:
-    if isinstance(p, bool) or not isinstance(p, int) or p < 2 or any(p % q == 0 for q in range(2, isqrt(p) + 1)):
-        raise ValueError(f"modulus {p!r} is not a prime")
-
-
-@lru_cache(maxsize=64)
-def _nullspace_mod_p(diagram: Diagram, p: int) -> tuple[tuple[int, ...], ...]:
-    """A basis (b_0, b_1, …, b_k) of the p-colourings, with b_0 + … + b_k = (1, …, 1).
-
-    Sparse elimination over Z/p; b_f is 1 on free column f, 0 on the other free
-    columns, and solves the pivot rows by back-substitution (last pivot first).
-    """
-    rows, ncols = _sparse_matrix(diagram)
-    elim = eliminate(rows, ncols, modulus=p)
-    pivot_cols = {c for _, c in elim.pivots}
-    free = [c for c in range(ncols) if c not in pivot_cols]
-    basis = []
-    for f in free:
-        x = [0] * ncols
-        x[f] = 1
-        for r, c in reversed(elim.pivots):
-            x[c] = -sum(a * x[c2] for c2, a in r.items()) % p
-        basis.append(tuple(x))
-    return tuple(basis)
-
-
-def _is_coloring(diagram: Diagram, colors: tuple[int, ...], p: int) -> bool:
-    rows, _ = _sparse_matrix(diagram)
-    return all(sum(v * colors[c] for c, v in r.items()) % p == 0 for r in rows)
-
-
-def _normalise(colors: list[int], p: int) -> tuple[int, ...]:
-    """Translate so column 0 has colour 0, then scale so the first nonzero colour is 1."""
-    shift = colors[0]
-    x = [(v - shift) % p for v in colors]
-    lead = next((v for v in x if v), 1)
-    inv = pow(lead, -1, p)
-    return tuple(v * inv % p for v in x)
-
-
-def witness_coloring(diagram: Diagram, p: int) -> Optional[tuple[int, ...]]:
-    """A nontrivial Fox p-colouring of ``diagram`` (p prime), or None if none exists.
-
-    Parameters
-    ----------
-    diagram : Diagram
-    p : int
-        A prime.
-
-    Returns
-    -------
-    tuple of int or None
-        One colour in Z/p per column of the colouring matrix (the arcs in
-        ``diagram.arcs`` order, then one per free loop), normalised so the first column
-        has colour 0 and the first nonzero colour is 1.  The colouring is checked against
-        every crossing relation 2·over ≡ under_in + under_out (mod p) before it is
-        returned.
-
-    Raises
-    ------
-    ValueError
-        If ``p`` is not a prime.
-    RuntimeError
-        If the colouring found fails the check (an internal error, never expected).
-
-    Notes
-    -----
-    Linear algebra over Z/p: sparse elimination, then the first nullspace vector that is
-    not constant (Fox 1962; Crowell–Fox 1963).
-    """
-    _check_prime(p)
-    basis = _nullspace_mod_p(diagram, p)
-    for b in basis[1:]:
-        if len(set(b)) > 1:
-            w = _normalise(list(b), p)
-            if not _is_coloring(diagram, w, p) or len(set(w)) < 2:
-                raise RuntimeError(f"witness {p}-colouring failed the crossing check (internal error)")
-            return w
-    return None
-
-
-def min_colors(diagram: Diagram, p: int, *, budget: int = 10_000) -> Optional[int]:
-    """Fewest distinct colours used by a nontrivial Fox p-colouring of this diagram.
-
-    Parameters
-    ----------
-    diagram : Diagram
-    p : int
-        A prime.
-    budget : int, default 10000
-        Largest number of candidate colourings to look at.
-
-    Returns
-    -------
-    int or None
-        The minimum; None when there is no nontrivial p-colouring or when the
-        (p^k − 1)/(p − 1) candidates exceed ``budget`` (the caller records
-        "skipped: min_colors budget N").
-
-    Notes
-    -----
-    The number of distinct colours is unchanged by x ↦ a·x + b (a ≠ 0), so it suffices
-    to look at one nonzero vector per line of the p-colouring space modulo constants,
-    of dimension k: (p^k − 1)/(p − 1) candidates, each the first-nonzero-coordinate-1
-    combination of the k non-constant basis vectors.  On one fixed diagram this can
-    exceed the minimum over all diagrams of the knot (Nakamura–Nakanishi–Satoh 2013).
-    """
-    _check_prime(p)
-    basis = _nullspace_mod_p(diagram, p)
-    k = len(basis) - 1
-    if k < 1:
-        return None
-    n_candidates = (p ** k - 1) // (p - 1)
-    if n_candidates > budget:
-        return None
-    import numpy as np
-
-    w = np.array(basis[1:], dtype=np.int64)  # k × columns
-    best = None
-    for lead in range(k):
-        tail = k - 1 - lead
-        count = p ** tail
-        coeffs = np.zeros((count, k), dtype=np.int64)
-        coeffs[:, lead] = 1
-        idx = np.arange(count, dtype=np.int64)
-        for t in range(tail):
-            coeffs[:, lead + 1 + t] = (idx // p ** t) % p
-        vecs = (coeffs @ w) % p
-        vecs.sort(axis=1)
-        distinct = 1 + (np.diff(vecs, axis=1) != 0).sum(axis=1)
-        m = int(distinct.min())
-        best = m if best is None else min(best, m)
-    return best

@@ -35,12 +35,9 @@ from typing import Optional, Sequence
 
 import flint
 
-import re
-
-from ...errors import NotationError
 from ...diagrams.families import montesinos as _montesinos
 from ...diagrams.families import two_bridge as _two_bridge
-from ...diagrams.notation import _fraction, _ints, split_notation
+from ...diagrams.notation import Notation, parse_notation, split_notation
 from ..poly import Laurent
 
 __all__ = ["rational_tangle_bracket", "two_bridge_bracket", "montesinos_bracket", "bracket_of_notation"]
@@ -161,13 +158,14 @@ def montesinos_bracket(fractions: Sequence[Optional[Fraction]]) -> Laurent:
     return _closure(total)
 
 
-def bracket_of_notation(text: str) -> Optional[Laurent]:
+def bracket_of_notation(text: "str | Notation") -> Optional[Laurent]:
     """The bracket of the diagram ``parse(text)`` builds, by the tangle route, for the
     kinds ``conway``, ``rational``, ``pretzel`` and ``montesinos``; None for any other
     kind (use :func:`pipeline.invariants.jones.frontier.kauffman_bracket` then).
 
-    Call it after ``parse(text)`` has succeeded: the arguments are read with the
-    same helpers as :mod:`pipeline.diagrams.notation`, and the Jones polynomial is
+    ``text`` is a diagram string or its parsed :class:`~pipeline.diagrams.notation.Notation`
+    (:func:`~pipeline.diagrams.notation.parse_notation`); the numbers are the parser's,
+    and the Jones polynomial is
     ``jones_from_bracket(bracket_of_notation(text), parse(text).writhe)``.
 
     Raises
@@ -182,19 +180,22 @@ def bracket_of_notation(text: str) -> Optional[Laurent]:
     >>> bracket_of_notation("torus:2,3") is None
     True
     """
-    kind, args = split_notation(text)
-    if kind == "conway":
-        return two_bridge_bracket(_ints("conway", args))
-    if kind == "rational":
-        m = re.fullmatch(r"\s*([+-]?\d+)\s*/\s*([+-]?\d+)\s*", args)
-        if not m:
-            raise NotationError(f"rational: {args.strip()!r} is not of the form α/β")
-        alpha, beta = int(m.group(1)), int(m.group(2))
+    n = text if isinstance(text, Notation) else None
+    if n is None:
+        kind, _ = split_notation(text)
+        if kind not in _TANGLE_KINDS:
+            return None
+        n = parse_notation(text)
+    if n.kind == "conway":
+        return two_bridge_bracket(list(n.args))
+    if n.kind == "rational":
+        alpha, beta = n.args
         return two_bridge_bracket(_two_bridge.continued_fraction(alpha, beta) if beta else [])
-    if kind == "pretzel":
-        return montesinos_bracket([None if p == 0 else Fraction(1, p) for p in _ints("pretzel", args)])
-    if kind == "montesinos":
-        if not args.strip():
-            raise NotationError("montesinos: no tangles given")
-        return montesinos_bracket([_fraction("montesinos", tok) for tok in args.split(",")])
+    if n.kind == "pretzel":
+        return montesinos_bracket([None if p == 0 else Fraction(1, p) for p in n.args])
+    if n.kind == "montesinos":
+        return montesinos_bracket(list(n.args))
     return None
+
+
+_TANGLE_KINDS = ("conway", "rational", "pretzel", "montesinos")

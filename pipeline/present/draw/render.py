@@ -23,6 +23,7 @@ from typing import Optional
 
 from ...diagrams.diagram import Diagram
 from ...errors import KnotLedgerError
+from ...numbers import prime_factors
 from .geometry import layout as _layout
 
 __all__ = ["draw_diagram", "witness_for_picture", "residue_palette"]
@@ -48,19 +49,6 @@ def residue_palette(p: int) -> list[str]:
     return [to_hex(cmap(k / (p - 1))) for k in range(p)]
 
 
-def _prime_factors(n: int) -> list[int]:
-    out, q = [], 2
-    while q * q <= n:
-        if n % q == 0:
-            out.append(q)
-            while n % q == 0:
-                n //= q
-        q += 1
-    if n > 1:
-        out.append(n)
-    return out
-
-
 def witness_for_picture(diagram: Diagram, p: int) -> tuple[int, ...]:
     """A non-constant Fox p-colouring, one colour per colouring-matrix column.
 
@@ -77,7 +65,7 @@ def witness_for_picture(diagram: Diagram, p: int) -> tuple[int, ...]:
 
     if isinstance(p, bool) or not isinstance(p, int) or p < 2:
         raise KnotLedgerError(f"coloring: modulus {p!r} must be an integer >= 2")
-    for q in ([p] if _prime_factors(p) == [p] else _prime_factors(p)):
+    for q in prime_factors(p):
         w = witness_coloring(diagram, q)
         if w is not None:
             return tuple((p // q) * c % p for c in w)

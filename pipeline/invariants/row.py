@@ -1,0 +1,145 @@
+"""The typed census row: what :func:`~pipeline.invariants.all.compute_row` hands on.
+
+Two frozen dataclasses replace the half-built dict that used to travel between
+``compute_all``, the bounds, the chirality verdict and the consistency checks (where a
+missing key silently dropped a check):
+
+* :class:`InvariantValues` — the computed invariants the relations read (every field
+  present; ``None`` means "not computed": skipped by a budget or failed);
+* :class:`CensusRow` — the whole row of one diagram; :meth:`CensusRow.to_record` gives
+  the dict the census writer stores (the same keys and values as always).
+
+:meth:`InvariantValues.from_record` is the one adapter from a stored row (a dict read
+back from Parquet: polynomials as JSON lists or JSON text, factors as strings).
+
+Adding a field: give :class:`CensusRow` a new field with a default (``None``), fill it
+in :func:`~pipeline.invariants.all.compute_row`; :meth:`CensusRow.to_record` then
+carries it (the worker stores keys it has no column for under ``extras``).  An input of
+the relations also goes into :class:`InvariantValues` and :meth:`CensusRow.values`.
+"""
+
+from __future__ import annotations
+
+import json
+from dataclasses import dataclass, field, fields
+from typing import Any, Mapping, Optional
+
+from .poly import Laurent
+
+__all__ = ["InvariantValues", "CensusRow"]
+
+
+def _missing(v: Any) -> bool:
+    """None, or a table library's missing marker (NaN, pandas' NA)."""
+    return v is None or (isinstance(v, float) and v != v) or type(v).__name__ == "NAType"
+
+
+def _laurent(v: Any) -> Optional[Laurent]:
+    """A Laurent polynomial from a Laurent, a README.md JSON list or JSON text."""
+    if _missing(v):
+        return None
+    if isinstance(v, Laurent):
+        return v
+    if isinstance(v, str):
+        v = json.loads(v)
+    return Laurent.from_json(v)
+
+
+def _int_or_none(v: Any) -> Optional[int]:
+    return None if _missing(v) else int(v)
+
+
+def _factor_tuple(v: Any) -> Optional[tuple[int, ...]]:
+    if _missing(v):
+        return None
+    if isinstance(v, str):
+        v = json.loads(v)
+    return tuple(int(x) for x in v)
+
+
+@dataclass(frozen=True)
+class InvariantValues:
+    """The invariants the bounds, chirality and checks read; None = not computed.
+
+    ``components`` None means "take the diagram's" (``diagram.n_components``).
+    """
+
+    components: Optional[int] = None
+    determinant: Optional[int] = None
+    invariant_factors: Optional[tuple[int, ...]] = None
+    alexander: Optional[Laurent] = None
+    conway: Optional[Laurent] = None
+    jones: Optional[Laurent] = None
+    signature: Optional[int] = None
+    nullity: Optional[int] = None
+
+    @classmethod
+    def from_record(cls, row: Mapping[str, Any]) -> "InvariantValues":
+        """The typed values of a row dict (computed or read back from the store).
+
+        Polynomials may be :class:`Laurent`, JSON lists or JSON text; invariant factors
+        ints, strings of digits or JSON text; missing keys are None.  (The determinant
+        is the ``determinant`` value as stored; a row whose determinant only fits
+        ``determinant_text`` keeps None here, exactly as the fingerprints always read it.)
+        """
+        g = row.get
+        return cls(components=_int_or_none(g("components")), determinant=_int_or_none(g("determinant")),
+                   invariant_factors=_factor_tuple(g("invariant_factors")),
+                   alexander=_laurent(g("alexander")), conway=_laurent(g("conway")),
+                   jones=_laurent(g("jones")), signature=_int_or_none(g("signature")),
+                   nullity=_int_or_none(g("nullity")))
+
+    @classmethod
+    def coerce(cls, values: "InvariantValues | Mapping[str, Any]") -> "InvariantValues":
+        """``values`` itself, or :meth:`from_record` of a mapping."""
+        return values if isinstance(values, InvariantValues) else cls.from_record(values)
+
+
+@dataclass(frozen=True)
+class CensusRow:
+    """Every invariant of one diagram (see :func:`~pipeline.invariants.all.compute_all`
+    for the meaning of each field).  Field order is the order of :meth:`to_record`."""
+
+    crossings: int
+    components: int
+    free_loops: int
+    writhe: int
+    alternating: Optional[bool]
+    determinant: Optional[int] = None
+    invariant_factors: Optional[tuple[int, ...]] = None
+    colorings: Optional[dict] = None
+    colorable_moduli: Optional[tuple[int, ...]] = None
+    witnesses: Optional[dict] = None
+    min_colors: Optional[dict] = None
+    alexander: Optional[Laurent] = None
+    conway: Optional[Laurent] = None
+    jones: Optional[Laurent] = None
+    signature: Optional[int] = None
+    nullity: Optional[int] = None
+    bounds: Optional[dict] = None
+    chirality: str = "unknown"
+    chirality_reason: str = "not computed"
+    checks: dict = field(default_factory=dict)
+    checks_failed: tuple[str, ...] = ()
+    status: str = "ok"
+    timings: dict = field(default_factory=dict)
+
+    def values(self) -> InvariantValues:
+        """The invariants as the relations read them."""
+        return InvariantValues(components=self.components, determinant=self.determinant,
+                               invariant_factors=self.invariant_factors, alexander=self.alexander,
+                               conway=self.conway, jones=self.jones, signature=self.signature,
+                               nullity=self.nullity)
+
+    def to_record(self) -> dict[str, Any]:
+        """The row as the dict the census writer stores (lists for sequences, copies of
+        the dicts), keys in field order."""
+        out: dict[str, Any] = {}
+        for f in fields(self):
+            v = getattr(self, f.name)
+            if isinstance(v, tuple):
+                v = list(v)
+            elif isinstance(v, dict):
+                v = dict(v)
+            out[f.name] = v
+        return out
