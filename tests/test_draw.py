@@ -237,7 +237,7 @@ def _matrix_from_picture(diagram, geo) -> list[list[int]]:
 
 @pytest.mark.parametrize("diagram", DIAGRAMS)
 def test_labels_are_the_matrix_labels(diagram):
-    coloring = pytest.importorskip("pipeline.invariants.coloring.spectrum.spectrum")
+    coloring = pytest.importorskip("pipeline.invariants.coloring.spectrum")
     geo = layout(diagram)
     for v, e in geo["edges"].items():
         assert e["arc"] == diagram.arc_of_label[v] + 1
@@ -314,7 +314,7 @@ def test_drawn_witness_colouring_satisfies_every_crossing(tmp_path, text, p):
 @pytest.mark.parametrize("text,p", [("dt:4 6 8 2", 3), ("torus:2,3", 5), ("torus:2,3", 4)])
 def test_no_nontrivial_colouring_is_a_one_line_error(tmp_path, text, p):
     d = parse(text)
-    from pipeline.invariants.coloring.spectrum.spectrum import coloring_matrix
+    from pipeline.invariants.coloring.spectrum import coloring_matrix
     assert not _brute_force_nontrivial(coloring_matrix(d), p)  # the slow route agrees
     out = tmp_path / "c.png"
     with pytest.raises(KnotLedgerError, match=rf"no nontrivial {p}-colouring"):
