@@ -54,7 +54,7 @@ def _overview(c: Census, blocks: list) -> None:
     d, m = c.diagrams, c.manifest
     name = m.get("spec_name") or (m.get("census") or {}).get("name") or c.path.name
     blocks.append(("h", 1, f"Census report: {name}"))
-    blocks.append(("p", f"Directory `{c.path}`; {len(d)} diagrams, {len(c.colorings)} colouring rows, "
+    blocks.append(("p", f"Directory `{c.path.name}`; {len(d)} diagrams, {len(c.colorings)} colouring rows, "
                         f"{len(c.knots)} knot types, {len(c.rejects)} rejects."))
     if len(d):
         fam = Counter(_plain(v) for v in d["family"])
@@ -383,7 +383,17 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
     parser.add_argument("directory", metavar="DIR", help="census directory")
 
 
+def shown_path(path: Path) -> str:
+    """``path`` as the user would type it: relative to the working directory when it
+    lies below it, else the bare directory name (never a long absolute path)."""
+    try:
+        return str(Path(path).resolve().relative_to(Path.cwd().resolve()))
+    except ValueError:
+        return Path(path).name
+
+
 def main(args: argparse.Namespace) -> int:
     md, page, files = build_report(args.directory)
-    sys.stdout.write(f"wrote {md}, {page} and {len(files)} plots in {md.parent / 'plots'}\n")
+    where = shown_path(md.parent)
+    sys.stdout.write(f"wrote {where}/report.md, {where}/report.html and {len(files)} plots in {where}/plots\n")
     return 0
