@@ -110,3 +110,15 @@ def test_page_writes_half_integer_exponents_in_brackets(capsys):
     assert "t^1/2" not in alex and "t^(1/2)" in alex
     code, js, _ = _run(capsys, "torus:2,2", "--json")
     assert json.loads(js)["jones"] == [[0.5, -1], [2.5, -1]]
+
+
+def test_show_does_not_import_the_census_or_plotting_libraries():
+    # start-up (issue 14): show of a small diagram must not load pandas, pyarrow, DuckDB
+    # or matplotlib; the timing itself is in tests/benchmarks/bench_startup.py
+    probe = ("import sys, io, contextlib\n"
+             "from pipeline.cli import main\n"
+             "with contextlib.redirect_stdout(io.StringIO()):\n"
+             "    assert main(['show', 'torus:2,3']) == 0\n"
+             "print(' '.join(m for m in ('pandas', 'pyarrow', 'duckdb', 'matplotlib') if m in sys.modules))\n")
+    res = subprocess.run([sys.executable, "-c", probe], capture_output=True, text=True, check=True)
+    assert res.stdout.strip() == ""
