@@ -149,5 +149,5 @@ def test_report_prints_the_census_path_relative_to_the_working_directory(report_
     monkeypatch.chdir(report_dir / "plots")  # the census is not below the working directory
     assert cli(["report", str(report_dir)]) == 0
     out = capsys.readouterr().out
-    assert str(report_dir.parent) not in out and "census/report.html" in out
+    assert str(report_dir.parent) not in out and "census/report.md" in out
     assert str(report_dir.parent) not in (report_dir / "report.md").read_text()

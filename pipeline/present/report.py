@@ -1,7 +1,8 @@
 """``knotledger report DIR``: a summary of a census as Markdown, HTML and PNG plots.
 
 Writes ``DIR/report.md`` (plots linked from ``DIR/plots/``), ``DIR/report.html``
-(self-contained: the same plots embedded as base64 PNG) and ``DIR/plots/*.png``.
+(self-contained: the same plots embedded as base64 PNG), ``DIR/plots/*.png`` and
+``DIR/explorer.html`` (the interactive page of :mod:`pipeline.present.explorer`).
 Sections: overview; determinant distribution per family; which primes colour which
 fraction of each family; fewest-colours statistics per prime; knot-collapse counts
 (diagrams versus knot types, per family and across families); chirality verdicts;
@@ -25,6 +26,7 @@ from pathlib import Path
 from typing import Any
 
 from . import plots as rp
+from .explorer import write_explorer
 from ..census.reader import Census, exact_int, open_census
 from ..errors import QueryError
 
@@ -36,7 +38,6 @@ MAX_LISTED = 20
 def _plain(v: Any) -> Any:
     from ..explore.claims import _plain as plain
     return plain(v)
-
 
 def _primes_upto(n: int) -> list[int]:
     return [p for p in range(2, n + 1) if all(p % d for d in range(2, int(p ** 0.5) + 1))]
@@ -322,6 +323,7 @@ def build_report(directory: str | Path) -> tuple[Path, Path, list[Path]]:
     _write(md, render_markdown(blocks))
     _write(page, render_html(blocks, plots))
     files = [plots / b[2] for b in blocks if b[0] == "img"]
+    write_explorer(census, census.path / "explorer.html", plots=[(b[1], plots / b[2]) for b in blocks if b[0] == "img"])
     return md, page, files
 
 
@@ -384,8 +386,7 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
 
 
 def shown_path(path: Path) -> str:
-    """``path`` as the user would type it: relative to the working directory when it
-    lies below it, else the bare directory name (never a long absolute path)."""
+    """``path`` relative to the working directory when below it, else its bare name."""
     try:
         return str(Path(path).resolve().relative_to(Path.cwd().resolve()))
     except ValueError:
@@ -395,5 +396,5 @@ def shown_path(path: Path) -> str:
 def main(args: argparse.Namespace) -> int:
     md, page, files = build_report(args.directory)
     where = shown_path(md.parent)
-    sys.stdout.write(f"wrote {where}/report.md, {where}/report.html and {len(files)} plots in {where}/plots\n")
+    sys.stdout.write(f"wrote {where}/report.md, report.html, explorer.html and {len(files)} plots in {where}/plots\n")
     return 0
