@@ -23,10 +23,10 @@ What it shows:
 Drawings are precomputed for the ``draw_per_family`` knot types of fewest crossings in
 each family (default :data:`DRAW_PER_FAMILY`; a type counts for every family it occurs
 in), with :func:`pipeline.present.draw.svg.diagram_svg`; other cards name the
-``knotledger draw`` command that draws them.  A drawing costs about 40 ms (the Tutte
-layout; measured on the 2-core development machine), so the drawings take about a second
-per family and the rest of the page is linear in the rows: a census of 10,000 knot types
-is written in seconds.
+``knotledger draw`` command that draws them.  A drawing costs 10-40 ms (the Tutte
+layout, growing with the crossings; reports/bench_explorer.md), so the drawings take at
+most about a second per family and the rest of the page is linear in the rows: a census
+of 10,000 knot types is written in seconds.
 """
 
 from __future__ import annotations
@@ -155,7 +155,7 @@ def explorer_html(data: dict, *, plots: Iterable[tuple[str, Path]] = (), compres
     data = dict(data, plots=[[cap, base64.b64encode(Path(p).read_bytes()).decode("ascii")] for cap, p in plots])
     text = json.dumps(data, ensure_ascii=False, separators=(",", ":"))
     if len(text.encode("utf-8")) > compress_over:
-        payload = base64.b64encode(gzip.compress(text.encode("utf-8"), mtime=0)).decode("ascii")
+        payload = base64.b64encode(gzip.compress(text.encode("utf-8"), compresslevel=6, mtime=0)).decode("ascii")
         block = f'<script id="kl-data" type="application/gzip-base64">{payload}</script>'
     else:
         safe = text.replace("</", "<\\/")  # no "</script>" inside the block

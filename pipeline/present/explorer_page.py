@@ -16,11 +16,11 @@ _CSS = """
 body{font-family:system-ui,sans-serif;margin:0;color:#222;background:#fafafa}
 header{padding:.6em 1.2em;background:#234;color:#fff}header h1{font-size:1.25em;margin:0}
 main{display:flex;gap:1em;padding:1em;align-items:flex-start}
-#left{flex:1 1 60%;min-width:0}#card{flex:0 0 34em;background:#fff;border:1px solid #ccc;padding:.8em;
+#left{flex:1 1 60%;min-width:0;overflow-x:auto}#card{flex:0 0 30em;background:#fff;border:1px solid #ccc;padding:.8em;
 position:sticky;top:.5em;max-height:95vh;overflow:auto}
 #filters{display:flex;flex-wrap:wrap;gap:.4em 1em;margin-bottom:.6em}#filters label{font-size:.9em}
 #filters input[type=number]{width:6em}#q{width:18em}
-table{border-collapse:collapse;background:#fff;font-size:.9em}td,th{border:1px solid #ccc;padding:2px 6px}
+table{border-collapse:collapse;background:#fff;font-size:.9em}td,th{border:1px solid #ccc;padding:2px 6px}#rows td{white-space:nowrap}
 th{cursor:pointer;background:#eef;user-select:none;white-space:nowrap}th.asc:after{content:" \\25B2"}
 th.desc:after{content:" \\25BC"}tbody tr{cursor:pointer}tbody tr:hover{background:#ffd}
 tbody tr.sel{background:#fe9}td.num{text-align:right;font-variant-numeric:tabular-nums}
