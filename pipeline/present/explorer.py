@@ -42,6 +42,7 @@ from typing import Any, Iterable
 
 from ..census.reader import Census, exact_int
 from .explorer_page import PAGE
+from .files import write_text_atomic
 
 __all__ = ["DRAW_PER_FAMILY", "COMPRESS_OVER", "COLUMNS", "explorer_data", "explorer_html", "write_explorer"]
 
@@ -168,11 +169,4 @@ def write_explorer(census: Census, path: Path, *, plots: Iterable[tuple[str, Pat
     """Write the explorer page of ``census`` to ``path`` (atomically) and return ``path``."""
     page = explorer_html(explorer_data(census, draw_per_family=draw_per_family), plots=plots,
                          compress_over=compress_over)
-    tmp = path.with_suffix(path.suffix + ".tmp")
-    try:
-        tmp.write_text(page, encoding="utf-8")
-        tmp.replace(path)
-    finally:
-        if tmp.exists():
-            tmp.unlink()
-    return path
+    return write_text_atomic(path, page)

@@ -27,6 +27,7 @@ from typing import Any
 
 from . import plots as rp
 from .explorer import write_explorer
+from .files import write_text_atomic
 from ..census.reader import Census, exact_int, open_census
 from ..errors import QueryError
 
@@ -320,21 +321,11 @@ def build_report(directory: str | Path) -> tuple[Path, Path, list[Path]]:
         blocks.append(("h", 2, "Diagrams"))
         blocks += [("img", cap, name) for cap, name in pictures]
     md, page = census.path / "report.md", census.path / "report.html"
-    _write(md, render_markdown(blocks))
-    _write(page, render_html(blocks, plots))
+    write_text_atomic(md, render_markdown(blocks))
+    write_text_atomic(page, render_html(blocks, plots))
     files = [plots / b[2] for b in blocks if b[0] == "img"]
     write_explorer(census, census.path / "explorer.html", plots=[(b[1], plots / b[2]) for b in blocks if b[0] == "img"])
     return md, page, files
-
-
-def _write(path: Path, text: str) -> None:
-    tmp = path.with_suffix(path.suffix + ".tmp")
-    try:
-        tmp.write_text(text, encoding="utf-8")
-        tmp.replace(path)
-    finally:
-        if tmp.exists():
-            tmp.unlink()
 
 
 def _md_cell(v: Any) -> str:

@@ -17,7 +17,7 @@ import math
 from ...diagrams.diagram import Diagram
 from ...errors import KnotLedgerError
 from .geometry import layout
-from .render import MAX_DRAW_CROSSINGS, _INK, _OKABE_ITO, _corner_offset, _length, _point_along, _widest_corner
+from .render import MAX_DRAW_CROSSINGS, _INK, _OKABE_ITO, _corner_offset, _point_along, _widest_corner, label_pieces
 
 __all__ = ["diagram_svg"]
 
@@ -94,13 +94,7 @@ def diagram_svg(diagram: Diagram, *, labels: bool = True, max_width: int = 420) 
         out.append(f'<path class="strand" data-arc="{col}" d="{d}" fill="none" stroke="{colour[col - 1]}" '
                    f'stroke-width="2.4"/>')
     if labels:
-        best: dict[int, list] = {}
-        for e in geo["edges"].values():
-            for pts in e["drawn"]:
-                if len(pts) >= 2 and (e["arc"] not in best or _length(pts) > _length(best[e["arc"]])):
-                    best[e["arc"]] = pts
-        for lp in geo["loops"]:
-            best[lp["column"]] = lp["points"]
+        best = label_pieces(geo)
         for col, pts in sorted(best.items()):
             x, y = pt(_point_along(pts, 0.5)[1])
             text = f"a{col}" if col <= m else f"o{col - m}"
