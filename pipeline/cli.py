@@ -25,7 +25,7 @@ COMMANDS = {
     "query": ("pipeline.explore.query", "read-only SQL over a census directory"),
     "check": ("pipeline.explore.claims", "test a claimed formula on every row of a census"),
     "fit": ("pipeline.explore.fit", "propose a closed formula in the family parameters"),
-    "report": ("pipeline.present.report", "write report.md, report.html and plots for a census"),
+    "report": ("pipeline.present.report", "write report.md, report.html, explorer.html and plots for a census"),
 }
 
 
