@@ -151,3 +151,11 @@ def test_report_prints_the_census_path_relative_to_the_working_directory(report_
     out = capsys.readouterr().out
     assert str(report_dir.parent) not in out and "census/report.md" in out
     assert str(report_dir.parent) not in (report_dir / "report.md").read_text()
+
+
+def test_report_writes_the_explorer_page_with_every_knot_type(report_dir):
+    page = (report_dir / "explorer.html").read_text()
+    m = re.search(r'<script id="kl-data" type="application/json">(.*?)</script>', page, re.S)
+    data = json.loads(m.group(1))
+    assert sorted(r[0] for r in data["knots"]) == sorted(open_census(report_dir).knots["knot_key"])
+    assert "<script src=" not in page and "<link " not in page  # self-contained
