@@ -155,7 +155,11 @@ def test_report_prints_the_census_path_relative_to_the_working_directory(report_
 
 def test_report_writes_the_explorer_page_with_every_knot_type(report_dir):
     page = (report_dir / "explorer.html").read_text()
-    m = re.search(r'<script id="kl-data" type="application/json">(.*?)</script>', page, re.S)
-    data = json.loads(m.group(1))
+    import base64
+    import gzip
+    m = re.search(r'<script id="kl-data" type="application/(json|gzip-base64)">(.*?)</script>', page, re.S)
+    text = m.group(2) if m.group(1) == "json" else gzip.decompress(base64.b64decode(m.group(2))).decode()
+    data = json.loads(text)
+    assert len(data["plots"]) == len(re.findall(r"\]\(plots/", (report_dir / "report.md").read_text()))
     assert sorted(r[0] for r in data["knots"]) == sorted(open_census(report_dir).knots["knot_key"])
     assert "<script src=" not in page and "<link " not in page  # self-contained
