@@ -1,6 +1,8 @@
 """The ``knotledger`` command: one subcommand per module, dispatched here.
 
 Each subcommand module provides ``add_arguments(parser)`` and ``main(args) -> int``.
+Only the module of the command being run is imported (the others bring pandas,
+DuckDB or matplotlib), so ``knotledger show`` starts without them.
 Exit codes (README.md, contract): 0 success, 1 checked and found false, 2 bad input
 or usage.  Errors are one line on stderr, never a traceback.
 """
@@ -23,7 +25,7 @@ COMMANDS = {
     "query": ("pipeline.explore.query", "read-only SQL over a census directory"),
     "check": ("pipeline.explore.claims", "test a claimed formula on every row of a census"),
     "fit": ("pipeline.explore.fit", "propose a closed formula in the family parameters"),
-    "report": ("pipeline.present.report", "write report.md, report.html and plots for a census"),
+    "report": ("pipeline.present.report", "write report.md, report.html, explorer.html and plots for a census"),
 }
 
 
@@ -33,7 +35,14 @@ class _Parser(argparse.ArgumentParser):
         raise SystemExit(2)
 
 
-def build_parser() -> argparse.ArgumentParser:
+def _command_of(argv: list[str]) -> str | None:
+    """The subcommand named in ``argv``: its first word that is not an option."""
+    return next((a for a in argv if not a.startswith("-")), None)
+
+
+def build_parser(command: str | None = None) -> argparse.ArgumentParser:
+    """The parser with every subcommand listed; only ``command``'s module is imported
+    and its options registered (the one argparse will dispatch to)."""
     parser = _Parser(prog="knotledger",
                      description="Census tabulation and database builder for knots and links.")
     from . import __version__
@@ -41,26 +50,19 @@ def build_parser() -> argparse.ArgumentParser:
     sub = parser.add_subparsers(dest="command", metavar="COMMAND", parser_class=_Parser)
     for name, (modname, help_text) in COMMANDS.items():
         p = sub.add_parser(name, help=help_text, description=help_text)
-        try:
+        if name == command:
             mod = importlib.import_module(modname)
-        except ModuleNotFoundError as err:
-            if err.name != modname:
-                raise
-            p.set_defaults(_missing=name)
-            continue
-        mod.add_arguments(p)
-        p.set_defaults(_main=mod.main)
+            mod.add_arguments(p)
+            p.set_defaults(_main=mod.main)
     return parser
 
 
 def main(argv: list[str] | None = None) -> int:
-    parser = build_parser()
+    argv = sys.argv[1:] if argv is None else list(argv)
+    parser = build_parser(_command_of(argv))
     args = parser.parse_args(argv)
     if not getattr(args, "command", None):
         parser.print_help(sys.stderr)
-        return 2
-    if getattr(args, "_missing", None):
-        sys.stderr.write(f"knotledger: command {args._missing!r} is not available in this build\n")
         return 2
     try:
         return int(args._main(args) or 0)

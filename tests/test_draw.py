@@ -427,3 +427,37 @@ def test_random_braid_closures_are_drawn_faithfully(word):
         assert math.isclose(sum((ang[(s + 1) % 4] - ang[s]) % (2 * math.pi) for s in range(4)), 2 * math.pi)
         assert _touching_labels(geo, i) == set(d.over_labels(i))
     assert len(geo["loops"]) == d.free_loops
+
+
+def test_svg_text_has_one_label_per_arc_and_crossing_and_the_layout_strands():
+    # The quick SVG route (explorer cards, notebooks) must carry the labels of `show`:
+    # arcs a1..am (colouring-matrix columns) and crossings x1..xn (PD rows), and one
+    # path per drawn piece of the layout; the output is well-formed XML.
+    import xml.etree.ElementTree as ET
+    from pipeline.present.draw.svg import diagram_svg
+    ns = "{http://www.w3.org/2000/svg}"
+    for text in ("torus:2,3", "conway:2 2", "torus:2,4", "pretzel:-2,3,7"):
+        d = parse(text)
+        root = ET.fromstring(diagram_svg(d))
+        arcs = sorted(t.text for t in root.iter(f"{ns}text") if t.get("class") == "arc")
+        xs = sorted(t.text for t in root.iter(f"{ns}text") if t.get("class") == "crossing")
+        assert arcs == sorted(f"a{k + 1}" for k in range(len(d.arcs)))
+        assert xs == sorted(f"x{i + 1}" for i in range(d.n_crossings))
+        paths = [p for p in root.iter(f"{ns}path") if p.get("class") == "strand"]
+        geo = layout(d)
+        assert len(paths) == sum(len(e["drawn"]) for e in geo["edges"].values()) + len(geo["loops"])
+        # every arc of the diagram is painted by at least one path
+        assert {int(p.get("data-arc")) for p in paths} == set(range(1, len(d.arcs) + 1))
+        w, h = float(root.get("width")), float(root.get("height"))
+        for p in paths:
+            for x, y in re.findall(r"(-?[\d.]+),(-?[\d.]+)", p.get("d")):
+                assert 0 <= float(x) <= w and 0 <= float(y) <= h
+
+
+def test_repr_svg_draws_a_diagram_without_loading_matplotlib():
+    import subprocess
+    import sys
+    probe = ("import sys\nfrom pipeline import parse\nsvg = parse('torus:2,3')._repr_svg_()\n"
+             "print(svg.count('class=\"arc\"'), 'matplotlib' in sys.modules)\n")
+    res = subprocess.run([sys.executable, "-c", probe], capture_output=True, text=True, check=True)
+    assert res.stdout.split() == ["3", "False"]

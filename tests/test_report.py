@@ -113,3 +113,53 @@ def test_determinant_histogram_handles_integers_beyond_float_range(tmp_path):
     out = rp.histogram_by_family({"two_bridge": [3, 5, 10 ** 83, 10 ** 400], "torus": [0, 1]},
                                  tmp_path / "h.png", "t", xlabel="determinant")
     assert out.read_bytes().startswith(PNG)
+
+
+def test_legend_order_is_numeric():
+    from pipeline.present.plots import legend_order
+    names = ["10 colours", "3 colours", "4 colours", "12 colours", "5 colours"]
+    assert legend_order(names) == ["3 colours", "4 colours", "5 colours", "10 colours", "12 colours"]
+    assert legend_order(["knot keys", "diagrams"]) == ["diagrams", "knot keys"]
+
+
+def test_fewest_colours_legend_is_drawn_in_numeric_order(tmp_path, report_dir, monkeypatch):
+    # the labels handed to matplotlib's legend, read back from the figure itself
+    import matplotlib
+    matplotlib.use("Agg", force=True)
+    import matplotlib.pyplot as plt
+    from pipeline.present import plots as rp
+    seen = {}
+    real_finish = rp._finish
+
+    def spy(fig, ax, path, title, empty):
+        seen[Path(path).name] = [t.get_text() for t in (ax.get_legend().get_texts() if ax.get_legend() else [])]
+        return real_finish(fig, ax, path, title, empty)
+    monkeypatch.setattr(rp, "_finish", spy)
+    rp.grouped_bars(["5", "7"], {"10 colours": [0, 1], "3 colours": [2, 0], "4 colours": [1, 1]},
+                    tmp_path / "m.png", "t", xlabel="p", ylabel="n")
+    assert seen["m.png"] == ["3 colours", "4 colours", "10 colours"]
+    plt.close("all")
+
+
+def test_report_prints_the_census_path_relative_to_the_working_directory(report_dir, capsys, monkeypatch):
+    monkeypatch.chdir(report_dir.parent)
+    assert cli(["report", "census"]) == 0
+    out = capsys.readouterr().out
+    assert str(report_dir.parent) not in out and "census/report.md" in out
+    monkeypatch.chdir(report_dir / "plots")  # the census is not below the working directory
+    assert cli(["report", str(report_dir)]) == 0
+    out = capsys.readouterr().out
+    assert str(report_dir.parent) not in out and "census/report.md" in out
+    assert str(report_dir.parent) not in (report_dir / "report.md").read_text()
+
+
+def test_report_writes_the_explorer_page_with_every_knot_type(report_dir):
+    page = (report_dir / "explorer.html").read_text()
+    import base64
+    import gzip
+    m = re.search(r'<script id="kl-data" type="application/(json|gzip-base64)">(.*?)</script>', page, re.S)
+    text = m.group(2) if m.group(1) == "json" else gzip.decompress(base64.b64decode(m.group(2))).decode()
+    data = json.loads(text)
+    assert len(data["plots"]) == len(re.findall(r"\]\(plots/", (report_dir / "report.md").read_text()))
+    assert sorted(r[0] for r in data["knots"]) == sorted(open_census(report_dir).knots["knot_key"])
+    assert "<script src=" not in page and "<link " not in page  # self-contained

@@ -95,3 +95,30 @@ def test_bad_input_from_the_command_line_has_no_traceback():
     assert proc.returncode == 2
     assert proc.stdout == ""
     assert len(proc.stderr.strip().splitlines()) == 1 and "Traceback" not in proc.stderr
+
+
+def test_page_writes_half_integer_exponents_in_brackets(capsys):
+    # Positive Hopf link T(2,2): V(t) = -t^(1/2) - t^(5/2) and, up to the sign and units
+    # of the normalisation, Δ(t) = t^(1/2) - t^(-1/2) *(memory: Jones, Bull. AMS 12, 1985)*.
+    # A bare "t^5/2" reads as t^5 / 2, so half-integer exponents must be bracketed
+    # (the form of Laurent.to_text); the page and --json must describe one polynomial.
+    code, out, _ = _run(capsys, "torus:2,2")
+    assert code == 0
+    line = next(x for x in out.splitlines() if "Jones" in x and "V(t)" in x)
+    assert line.split("=", 1)[1].strip() == "-t^(1/2) - t^(5/2)"
+    alex = next(x for x in out.splitlines() if "Alexander" in x)
+    assert "t^1/2" not in alex and "t^(1/2)" in alex
+    code, js, _ = _run(capsys, "torus:2,2", "--json")
+    assert json.loads(js)["jones"] == [[0.5, -1], [2.5, -1]]
+
+
+def test_show_does_not_import_the_census_or_plotting_libraries():
+    # start-up (issue 14): show of a small diagram must not load pandas, pyarrow, DuckDB
+    # or matplotlib; the timing itself is in tests/benchmarks/bench_startup.py
+    probe = ("import sys, io, contextlib\n"
+             "from pipeline.cli import main\n"
+             "with contextlib.redirect_stdout(io.StringIO()):\n"
+             "    assert main(['show', 'torus:2,3']) == 0\n"
+             "print(' '.join(m for m in ('pandas', 'pyarrow', 'duckdb', 'matplotlib') if m in sys.modules))\n")
+    res = subprocess.run([sys.executable, "-c", probe], capture_output=True, text=True, check=True)
+    assert res.stdout.strip() == ""

@@ -119,6 +119,22 @@ class Census:
     rejects: Any
     manifest: dict = field(default_factory=dict)
 
+    def row(self, row_id: int) -> dict:
+        """Diagram row ``row_id`` as a dict (nulls as ``None``), with ``"colorings"``: its
+        colouring rows as dicts, and ``"knot"``: its knots-table record (``{}`` if none)."""
+        d = self.diagrams
+        hit = d[d["row_id"] == row_id] if len(d) else d
+        if not len(hit):
+            raise QueryError(f"census: no diagram row {row_id}")
+        def plain(rec: dict) -> dict:
+            return {k: None if _is_missing(v) else v for k, v in rec.items()}
+        out = plain(hit.iloc[0].to_dict())
+        col, k = self.colorings, self.knots
+        out["colorings"] = [plain(r) for r in col[col["row_id"] == row_id].to_dict("records")] if len(col) else []
+        match = k[k["knot_key"] == out.get("knot_key")].to_dict("records") if len(k) else []
+        out["knot"] = plain(match[0]) if match else {}
+        return out
+
 
 def open_census(directory: str | Path) -> Census:
     """Open a census directory and read its four tables into pandas DataFrames.

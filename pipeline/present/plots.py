@@ -10,7 +10,7 @@ from __future__ import annotations
 from pathlib import Path
 from typing import Sequence
 
-__all__ = ["PLOTS", "histogram_by_family", "grouped_bars", "stacked_bars", "line_plot"]
+__all__ = ["PLOTS", "legend_order", "histogram_by_family", "grouped_bars", "stacked_bars", "line_plot"]
 
 #: file name -> title; every report writes all of them.
 PLOTS = {
@@ -21,6 +21,17 @@ PLOTS = {
     "chirality.png": "Chirality verdicts per family",
     "timings.png": "Seconds per committed chunk",
 }
+
+
+def legend_order(names: Sequence[str]) -> list[str]:
+    """Series names in reading order: runs of digits compare as numbers, so
+    ``"3 colours" < "4 colours" < "10 colours"``."""
+    import re
+
+    def key(name: str) -> list:
+        return [(0, int(tok), "") if tok.isdigit() else (1, 0, tok)
+                for tok in re.findall(r"\d+|\D+", str(name))]
+    return sorted(names, key=key)
 
 
 def _pyplot():
@@ -76,7 +87,8 @@ def grouped_bars(groups: Sequence[str], series: dict[str, Sequence[float]], path
     fig, ax = plt.subplots(figsize=(7, 4))
     n = max(len(series), 1)
     width = 0.8 / n
-    for k, (name, vals) in enumerate(sorted(series.items())):
+    for k, name in enumerate(legend_order(list(series))):
+        vals = series[name]
         xs = [i + (k - (n - 1) / 2) * width for i in range(len(groups))]
         ax.bar(xs, vals, width=width, label=str(name))
     if groups and series:
@@ -94,7 +106,8 @@ def stacked_bars(groups: Sequence[str], series: dict[str, Sequence[int]], path: 
     plt = _pyplot()
     fig, ax = plt.subplots(figsize=(7, 4))
     bottom = [0] * len(groups)
-    for name, vals in sorted(series.items()):
+    for name in legend_order(list(series)):
+        vals = series[name]
         ax.bar(range(len(groups)), vals, bottom=bottom, label=str(name))
         bottom = [b + v for b, v in zip(bottom, vals)]
     if groups and series:

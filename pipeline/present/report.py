@@ -1,7 +1,8 @@
 """``knotledger report DIR``: a summary of a census as Markdown, HTML and PNG plots.
 
 Writes ``DIR/report.md`` (plots linked from ``DIR/plots/``), ``DIR/report.html``
-(self-contained: the same plots embedded as base64 PNG) and ``DIR/plots/*.png``.
+(self-contained: the same plots embedded as base64 PNG), ``DIR/plots/*.png`` and
+``DIR/explorer.html`` (the interactive page of :mod:`pipeline.present.explorer`).
 Sections: overview; determinant distribution per family; which primes colour which
 fraction of each family; fewest-colours statistics per prime; knot-collapse counts
 (diagrams versus knot types, per family and across families); chirality verdicts;
@@ -25,6 +26,8 @@ from pathlib import Path
 from typing import Any
 
 from . import plots as rp
+from .explorer import write_explorer
+from .files import write_text_atomic
 from ..census.reader import Census, exact_int, open_census
 from ..errors import QueryError
 from ..numbers import primes_upto
@@ -51,7 +54,7 @@ def _overview(c: Census, blocks: list) -> None:
     d, m = c.diagrams, c.manifest
     name = m.get("spec_name") or (m.get("census") or {}).get("name") or c.path.name
     blocks.append(("h", 1, f"Census report: {name}"))
-    blocks.append(("p", f"Directory `{c.path}`; {len(d)} diagrams, {len(c.colorings)} colouring rows, "
+    blocks.append(("p", f"Directory `{c.path.name}`; {len(d)} diagrams, {len(c.colorings)} colouring rows, "
                         f"{len(c.knots)} knot types, {len(c.rejects)} rejects."))
     if len(d):
         fam = Counter(_plain(v) for v in d["family"])
@@ -316,20 +319,11 @@ def build_report(directory: str | Path) -> tuple[Path, Path, list[Path]]:
         blocks.append(("h", 2, "Diagrams"))
         blocks += [("img", cap, name) for cap, name in pictures]
     md, page = census.path / "report.md", census.path / "report.html"
-    _write(md, render_markdown(blocks))
-    _write(page, render_html(blocks, plots))
+    write_text_atomic(md, render_markdown(blocks))
+    write_text_atomic(page, render_html(blocks, plots))
     files = [plots / b[2] for b in blocks if b[0] == "img"]
+    write_explorer(census, census.path / "explorer.html", plots=[(b[1], plots / b[2]) for b in blocks if b[0] == "img"])
     return md, page, files
-
-
-def _write(path: Path, text: str) -> None:
-    tmp = path.with_suffix(path.suffix + ".tmp")
-    try:
-        tmp.write_text(text, encoding="utf-8")
-        tmp.replace(path)
-    finally:
-        if tmp.exists():
-            tmp.unlink()
 
 
 def _md_cell(v: Any) -> str:
@@ -380,7 +374,16 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
     parser.add_argument("directory", metavar="DIR", help="census directory")
 
 
+def shown_path(path: Path) -> str:
+    """``path`` relative to the working directory when below it, else its bare name."""
+    try:
+        return str(Path(path).resolve().relative_to(Path.cwd().resolve()))
+    except ValueError:
+        return Path(path).name
+
+
 def main(args: argparse.Namespace) -> int:
     md, page, files = build_report(args.directory)
-    sys.stdout.write(f"wrote {md}, {page} and {len(files)} plots in {md.parent / 'plots'}\n")
+    where = shown_path(md.parent)
+    sys.stdout.write(f"wrote {where}/report.md, report.html, explorer.html and {len(files)} plots in {where}/plots\n")
     return 0

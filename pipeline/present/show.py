@@ -135,21 +135,10 @@ def to_json_object(diagram: Diagram, notation: str, row: dict) -> dict:
 
 # ------------------------------------------------------------------ page
 def _poly_text(poly: Any, var: str) -> str:
-    """A Laurent polynomial as text in ``var`` (exponents may be half-integers)."""
-    terms = getattr(poly, "terms", None)
-    if terms is None:
-        return str(poly)
-    if not terms:
-        return "0"
-    parts = []
-    for k, c in terms:
-        e = Fraction(k, 2)
-        mono = "" if e == 0 else (var if e == 1 else f"{var}^{e}" if e > 0 else f"{var}^({e})")
-        mag = abs(c)
-        body = (str(mag) if mono == "" or mag != 1 else "") + mono
-        parts.append(("- " if c < 0 else "+ ") + body)
-    text = " ".join(parts)
-    return text[2:] if text.startswith("+ ") else "-" + text[2:]
+    """A Laurent polynomial as text in ``var``: :meth:`~pipeline.invariants.poly.Laurent.to_text`
+    (half-integer exponents bracketed, ``t^(5/2)``); anything else as ``str``."""
+    to_text = getattr(poly, "to_text", None)
+    return to_text(var) if to_text is not None else str(poly)
 
 
 def _col_names(diagram: Diagram) -> list[str]:

@@ -15,7 +15,8 @@ from __future__ import annotations
 import argparse
 import sys
 
-from .geometry import layout, stray_intersections
+from .geometry import layout
+from .intersections import stray_intersections
 from .render import draw_diagram, residue_palette, witness_for_picture
 
 __all__ = ["draw_diagram", "layout", "stray_intersections", "residue_palette",

@@ -104,6 +104,19 @@ def _point_along(pts, frac: float) -> tuple[int, tuple[float, float]]:
     return len(pts) - 2, pts[-1]
 
 
+def label_pieces(geo: dict) -> dict[int, list]:
+    """Column (1-based arc number, then free loops) -> the polyline its label is put on:
+    the longest drawn piece of the arc, or the loop itself."""
+    best: dict[int, list] = {}
+    for e in geo["edges"].values():
+        for pts in e["drawn"]:
+            if len(pts) >= 2 and (e["arc"] not in best or _length(pts) > _length(best[e["arc"]])):
+                best[e["arc"]] = pts
+    for lp in geo["loops"]:
+        best[lp["column"]] = lp["points"]
+    return best
+
+
 def _length(pts) -> float:
     return sum(math.dist(pts[k], pts[k + 1]) for k in range(len(pts) - 1))
 
@@ -194,13 +207,7 @@ def draw_diagram(diagram: Diagram, path, *, coloring: Optional[int] = None, labe
                         ax.plot(xs, ys, color=_INK, lw=lw + 1.6, solid_capstyle="butt", zorder=1)
                     ax.plot(xs, ys, color=col, lw=lw, solid_capstyle="butt", zorder=2, gid=gid)
             # one label / arrow per arc, on its longest drawn piece
-            best: dict[int, list] = {}
-            for e in geo["edges"].values():
-                for pts in e["drawn"]:
-                    if len(pts) >= 2 and (e["arc"] not in best or _length(pts) > _length(best[e["arc"]])):
-                        best[e["arc"]] = pts
-            for lp in geo["loops"]:
-                best[lp["column"]] = lp["points"]
+            best = label_pieces(geo)
             box = dict(boxstyle="round,pad=0.15", fc="white", lw=1.2)
             for col, pts in sorted(best.items()):
                 if arrows:
