@@ -3,19 +3,26 @@
 Layout (README.md, "Store layout")::
 
     DIR/manifest.json                      the census (or manifest.shard-I-of-N.json)
+    DIR/.knotledger.lock                   the writer lock (pipeline.census.lock)
     DIR/diagrams/part-schema.parquet       zero rows, carries the schema (always there)
     DIR/diagrams/part-c00000017.parquet    the rows of chunk 17
     DIR/colorings/...  DIR/rejects/...     likewise
     DIR/knots/part-knots.parquet           built after every chunk is in
-    DIR/_tmp/                              parts being written (never read)
+    DIR/_tmp/                              parts being written (never read; removed
+                                           when a run ends)
 
 Commit protocol for a chunk: write each non-empty part to ``_tmp/``, ``fsync``,
 ``os.replace`` it into its table directory, then rewrite the manifest (temp file +
 ``os.replace``) with the chunk's row counts, byte sizes and SHA-256 checksums.  A
-chunk is committed exactly when the manifest lists it.  :meth:`CensusStore.prepare`
-(every start and resume) deletes the parts the manifest does not list, so after a
-SIGKILL at any moment a reader never sees a chunk twice and a resume recomputes
-exactly the uncommitted chunks.  Shards keep their own manifest, touch only the
+chunk is committed exactly when the manifest lists it: readers list only the parts a
+manifest commits (:func:`pipeline.census.reader.table_files`), and
+:meth:`CensusStore.prepare` (every start and resume) deletes the parts the manifest
+does not list, so after a SIGKILL at any moment a reader never sees a chunk twice or an
+uncommitted one, and a resume recomputes exactly the uncommitted chunks.  A write that
+fails (a full disk, a read-only or vanished directory) removes what this chunk had
+already published and re-raises, leaving the manifest as it was.  The knots table is
+written beside (``_tmp/``) and renamed into place, so a reader sees the old table or
+the new one, never half of one.  Shards keep their own manifest, touch only the
 parts of their own chunks, and are merged (idempotently) by a later plain resume.
 """
 
@@ -31,9 +38,9 @@ from typing import Iterable, Optional
 import pyarrow as pa
 import pyarrow.parquet as pq
 
-from .schemas import SCHEMA_VERSION, SCHEMAS
-
 from ..errors import KnotLedgerError
+from .lock import LOCK_NAME
+from .schemas import SCHEMA_VERSION, SCHEMAS
 
 __all__ = ["CensusStore", "StoreError", "part_name", "read_table", "FORMAT"]
 
@@ -61,12 +68,18 @@ def _sha256(path: Path) -> str:
 
 def _write_json_atomic(path: Path, obj: dict) -> None:
     tmp = path.with_name(f".{path.name}.tmp-{os.getpid()}")
-    with tmp.open("w", encoding="utf-8") as fh:
-        json.dump(obj, fh, indent=1, sort_keys=True)
-        fh.write("\n")
-        fh.flush()
-        os.fsync(fh.fileno())
-    os.replace(tmp, path)
+    try:
+        with tmp.open("w", encoding="utf-8") as fh:
+            json.dump(obj, fh, indent=1, sort_keys=True)
+            fh.write("\n")
+            fh.flush()
+            os.fsync(fh.fileno())
+        os.replace(tmp, path)
+    finally:
+        try:
+            tmp.unlink(missing_ok=True)
+        except OSError:  # the directory itself may be gone
+            pass
 
 
 def to_arrow(table: str, rows: list[dict], metadata: dict[str, str]) -> pa.Table:
@@ -81,9 +94,11 @@ def to_arrow(table: str, rows: list[dict], metadata: dict[str, str]) -> pa.Table
 
 
 def read_table(directory: str | Path, table: str) -> pa.Table:
-    """Every part of ``table`` in a census directory as one Arrow table (by row_id)."""
+    """Every committed part of ``table`` as one Arrow table (sorted by row_id)."""
     import pyarrow.dataset as ds
-    t = ds.dataset(str(Path(directory) / table), format="parquet", schema=SCHEMAS[table]).to_table()
+    from .reader import table_files
+    files = [str(p) for p in table_files(directory, table)]
+    t = ds.dataset(files, format="parquet", schema=SCHEMAS[table]).to_table()
     if "row_id" in t.column_names and t.num_rows:
         t = t.sort_by([("row_id", "ascending")] + ([("modulus", "ascending")] if table == "colorings" else []))
     return t
@@ -115,7 +130,7 @@ class CensusStore:
     def create(self, identity: dict, info: dict) -> None:
         """Start a new census (or join one as a new shard); never overwrite."""
         existing = self._manifests() if self.dir.exists() else []
-        if self.dir.exists() and any(self.dir.iterdir()):
+        if self.dir.exists() and any(p.name != LOCK_NAME for p in self.dir.iterdir()):
             if not existing:
                 raise StoreError(f"{self.dir}: directory is not empty and holds no census manifest; "
                                  "choose a new --out directory")
@@ -233,19 +248,29 @@ class CensusStore:
         return {"rows": table.num_rows, "bytes": path.stat().st_size, "sha256": _sha256(path)}
 
     def committed(self) -> set[int]:
+        """The chunks this writer's manifest commits."""
         return {int(k) for k in self.manifest["chunks"]}
 
     def write_chunk(self, chunk: int, result: dict) -> dict:
         """Publish one chunk's parts, then record it in the manifest (the commit)."""
         meta = self.metadata()
-        parts = {}
-        for table in CHUNK_TABLES:
-            rows = result[table]
-            if rows:
-                parts[table] = self._publish(to_arrow(table, rows, meta), part_name(table, chunk))
-        entry = {"parts": parts, **result["stats"]}
-        self.manifest["chunks"][str(chunk)] = entry
-        _write_json_atomic(self.manifest_path, self.manifest)
+        parts: dict = {}
+        try:
+            for table in CHUNK_TABLES:
+                rows = result[table]
+                if rows:
+                    parts[table] = self._publish(to_arrow(table, rows, meta), part_name(table, chunk))
+            entry = {"parts": parts, **result["stats"]}
+            self.manifest["chunks"][str(chunk)] = entry
+            _write_json_atomic(self.manifest_path, self.manifest)
+        except BaseException:  # nothing of a failed chunk stays behind
+            self.manifest["chunks"].pop(str(chunk), None)
+            for table in parts:
+                try:
+                    (self.dir / part_name(table, chunk)).unlink(missing_ok=True)
+                except OSError:
+                    pass
+            raise
         return entry
 
     def write_knots(self, rows: list[dict], note: str) -> None:
@@ -259,7 +284,15 @@ class CensusStore:
         _write_json_atomic(self.manifest_path, self.manifest)
 
     def save(self) -> None:
+        """Rewrite the manifest (atomically)."""
         _write_json_atomic(self.manifest_path, self.manifest)
+
+    def close(self) -> None:
+        """Remove ``_tmp/`` when no writer has anything in it (shards may still)."""
+        try:
+            (self.dir / "_tmp").rmdir()
+        except OSError:
+            pass
 
     def verify(self) -> list[str]:
         """Checksums of every committed part; returns the problems found (empty = intact)."""
