@@ -7,6 +7,7 @@ renamed into place and before the manifest recorded them (tests/_driver.py).
 from __future__ import annotations
 
 import json
+import os
 import shutil
 import subprocess
 import sys
@@ -42,9 +43,16 @@ def clean(tmp_path_factory) -> Path:
 def _crashed_before_manifest(tmp: Path, nth: int) -> Path:
     """A census whose run died right before its nth manifest write (1 = the create)."""
     out = tmp / "out"
-    proc = subprocess.run([sys.executable, str(DRIVER), str(_spec(tmp)), str(out),
-                           "--kill", f"manifest:{nth}:before"], capture_output=True)
-    assert proc.returncode == -9, proc.stderr.decode()[-500:]
+    with open(os.devnull, "w") as null:
+        proc = subprocess.Popen([sys.executable, str(DRIVER), str(_spec(tmp)), str(out),
+                                 "--kill", f"manifest:{nth}:before"], stdout=null, stderr=null,
+                                start_new_session=True)
+        rc = proc.wait(timeout=300)
+    try:
+        os.killpg(proc.pid, 9)       # the orphaned loky worker
+    except ProcessLookupError:
+        pass
+    assert rc == -9
     return out
 
 

@@ -34,7 +34,6 @@ from __future__ import annotations
 import argparse
 import hashlib
 import json
-import re
 import sys
 import time
 from pathlib import Path
@@ -187,21 +186,16 @@ def build_knots(store) -> None:
     store.write_knots(knots, "built by pipeline.identify.classify.build_knots_table")
 
 
-_ERRNO = re.compile(r"\[errno (\d+)\]", re.IGNORECASE)
-
-
 def os_error_line(err: OSError) -> str:
-    """One line naming the path and the cause of an OS error (Python's or Arrow's)."""
+    """One line naming the path and the cause of an OS error."""
     import errno as errno_mod
     import os
     code = err.errno
-    if code is None:  # Arrow's IO errors carry the errno only in their text
-        m = _ERRNO.search(str(err))
-        code = int(m.group(1)) if m else None
     cause = os.strerror(code) if code else (err.strerror or str(err).splitlines()[0])
-    name = f" ({errno_mod.errorcode.get(code, code)})" if code else ""
-    path = err.filename if err.filename is not None else None
-    return f"{path}: {cause}{name}" if path else f"{cause}{name}: {str(err).splitlines()[0]}"
+    tag = f" ({errno_mod.errorcode.get(code, code)})" if code else ""
+    if err.filename is None:
+        return f"{cause}{tag}"
+    return f"{err.filename}: {cause}{tag}"
 
 
 def run_census(spec: Spec, out: str | Path, *, jobs: int = 1, resume: bool = False,

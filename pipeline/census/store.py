@@ -32,6 +32,7 @@ import hashlib
 import json
 import os
 import re
+import shutil
 from pathlib import Path
 from typing import Iterable, Optional
 
@@ -66,6 +67,24 @@ def _sha256(path: Path) -> str:
     return h.hexdigest()
 
 
+_ERRNO = re.compile(r"\[errno (\d+)\]", re.IGNORECASE)
+
+
+def _named(err: OSError, path: Path) -> OSError:
+    """``err`` with a file name (write errors and Arrow's IO errors carry none)."""
+    if err.filename is not None:
+        return err
+    code = err.errno
+    if code is None:
+        m = _ERRNO.search(str(err))
+        code = int(m.group(1)) if m else None
+    if code is None:
+        return OSError(f"{path}: {err}")
+    new = OSError(code, os.strerror(code), str(path))
+    new.__cause__ = err
+    return new
+
+
 def _write_json_atomic(path: Path, obj: dict) -> None:
     tmp = path.with_name(f".{path.name}.tmp-{os.getpid()}")
     try:
@@ -75,6 +94,8 @@ def _write_json_atomic(path: Path, obj: dict) -> None:
             fh.flush()
             os.fsync(fh.fileno())
         os.replace(tmp, path)
+    except OSError as err:
+        raise _named(err, path) from err
     finally:
         try:
             tmp.unlink(missing_ok=True)
@@ -213,7 +234,9 @@ class CensusStore:
         listed = {(t, int(k)) for k, e in self.manifest["chunks"].items() for t in e["parts"]}
         tag = self._tmp_tag()
         for f in (self.dir / "_tmp").iterdir():
-            if self.shard is None or f.name.startswith(tag):
+            if f.is_dir() and self.shard is None:  # a knots build that was killed
+                shutil.rmtree(f)
+            elif self.shard is None or f.name.startswith(tag):
                 f.unlink(missing_ok=True)
         for table in CHUNK_TABLES:
             for f in (self.dir / table).iterdir():
@@ -242,8 +265,13 @@ class CensusStore:
             with tmp.open("rb") as fh:
                 os.fsync(fh.fileno())
             os.replace(tmp, self.dir / rel)
+        except OSError as err:
+            raise _named(err, self.dir / rel) from err
         finally:
-            tmp.unlink(missing_ok=True)
+            try:
+                tmp.unlink(missing_ok=True)
+            except OSError:  # the directory itself may be gone
+                pass
         path = self.dir / rel
         return {"rows": table.num_rows, "bytes": path.stat().st_size, "sha256": _sha256(path)}
 
