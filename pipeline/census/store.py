@@ -230,8 +230,15 @@ class CensusStore:
                 self._publish(to_arrow(table, [], meta), f"{table}/part-schema.parquet")
 
     def prepare(self) -> None:
-        """Delete every part (and temp file) that the manifest does not list."""
+        """Delete every part (and temp file) that the manifest does not list.
+
+        A shard touches only its own chunks and temp files; the whole census all of them
+        (it runs under the exclusive lock, so no shard is writing).
+        """
         listed = {(t, int(k)) for k, e in self.manifest["chunks"].items() for t in e["parts"]}
+        mine = ".manifest*.tmp-*" if self.shard is None else f".{self.manifest_path.name}.tmp-*"
+        for f in self.dir.glob(mine):  # a manifest write that was killed
+            f.unlink(missing_ok=True)
         tag = self._tmp_tag()
         for f in (self.dir / "_tmp").iterdir():
             if f.is_dir() and self.shard is None:  # a knots build that was killed
