@@ -327,3 +327,33 @@ def test_resume_keeps_command_line_budgets_and_refuses_different_ones(tmp_path):
     assert m["census"]["options"]["timeout"] == 50.0
     with pytest.raises(KnotLedgerError, match="options differs"):
         run_census(load_spec(spec), out, resume=True, overrides={"timeout": 5.0}, quiet=True)
+
+
+def test_a_failed_commit_stops_the_run_and_is_not_a_dead_worker(reference, tmp_path, monkeypatch, capsys):
+    # An Arrow type error while committing chunk 2 used to be taken for a crashed worker:
+    # the chunk was retried and the run went on.  Now the run stops (one line, exit 1),
+    # chunk 2 is not committed, no row says "worker process died", and --resume completes.
+    import pyarrow as pa
+    import pipeline.census.store as store_mod
+    _, c = reference
+    spec = _write(tmp_path)
+    out = tmp_path / "out"
+    real, calls = store_mod.to_arrow, []
+
+    def to_arrow(table, rows, meta):
+        calls.append(table)
+        if rows and rows[0].get("row_id") == 12 and table == "diagrams":
+            raise pa.ArrowTypeError("object of type <class 'str'> cannot be converted to int")
+        return real(table, rows, meta)
+
+    monkeypatch.setattr(store_mod, "to_arrow", to_arrow)
+    capsys.readouterr()
+    assert cli_main(["run", str(spec), "--out", str(out), "--quiet"]) == 1
+    err = capsys.readouterr().err
+    assert err.count("\n") == 1 and "chunk 2: diagrams rows do not fit the schema (ArrowTypeError" in err
+    manifest = json.loads((out / "manifest.json").read_text())
+    assert "2" not in manifest["chunks"]
+    monkeypatch.undo()
+    assert not [r for r in read_table(out, "diagrams").to_pylist() if "died" in (r["status"] or "")]
+    assert cli_main(["run", str(spec), "--out", str(out), "--resume", "--quiet"]) == 0
+    assert _contents(out) == c

@@ -229,13 +229,14 @@ def run_census(spec: Spec, out: str | Path, *, jobs: int = 1, resume: bool = Fal
     if resume and not out.is_dir():
         from .store import StoreError
         raise StoreError(f"{out}: no census manifest here; run without --resume to start one")
+    from .store import WriteError
     inputs = {str(p) for p in spec.input_files()}
     try:
         with census_lock(out, shared=shard is not None, wait=wait,
                          role="shard %d/%d" % shard if shard else ("resume" if resume else "run")):
             return _locked_run(spec, out, jobs=jobs, resume=resume, shard=shard,
                                scheduler=scheduler, overrides=overrides, quiet=quiet, fault=fault)
-    except LockBusy as err:
+    except (LockBusy, WriteError) as err:
         raise RunFailed(str(err)) from None
     except OSError as err:
         line = os_error_line(err)

@@ -43,7 +43,7 @@ from ..errors import KnotLedgerError
 from .lock import LOCK_NAME
 from .schemas import SCHEMA_VERSION, SCHEMAS
 
-__all__ = ["CensusStore", "StoreError", "part_name", "read_table", "FORMAT"]
+__all__ = ["CensusStore", "StoreError", "WriteError", "part_name", "read_table", "FORMAT"]
 
 FORMAT = "knotledger-census/1"
 CHUNK_TABLES = ("diagrams", "colorings", "rejects")
@@ -52,6 +52,10 @@ _PART = re.compile(r"^part-c(\d{8})\.parquet$")
 
 class StoreError(KnotLedgerError):
     """A census directory is missing, foreign, or would be overwritten."""
+
+
+class WriteError(StoreError):
+    """Rows could not be converted to their table's Arrow schema (a failed run, not bad input)."""
 
 
 def part_name(table: str, chunk: int) -> str:
@@ -294,7 +298,12 @@ class CensusStore:
             for table in CHUNK_TABLES:
                 rows = result[table]
                 if rows:
-                    parts[table] = self._publish(to_arrow(table, rows, meta), part_name(table, chunk))
+                    try:
+                        arrow = to_arrow(table, rows, meta)
+                    except (pa.ArrowException, StoreError) as err:
+                        raise WriteError(f"chunk {chunk}: {table} rows do not fit the schema "
+                                         f"({type(err).__name__}: {str(err).splitlines()[0]})") from err
+                    parts[table] = self._publish(arrow, part_name(table, chunk))
             entry = {"parts": parts, **result["stats"]}
             self.manifest["chunks"][str(chunk)] = entry
             _write_json_atomic(self.manifest_path, self.manifest)
