@@ -242,8 +242,11 @@ def run_census(spec: Spec, out: str | Path, *, jobs: int = 1, resume: bool = Fal
         line = os_error_line(err)
         if err.filename is not None and str(err.filename) in inputs:
             raise SpecError(f"input file {line}") from None
+        again = f"knotledger run {spec.path or 'SPEC'} --out {out}"
+        again += f" --shard {shard[0]}/{shard[1]}" if shard else ""
+        started = out.is_dir() and any(out.glob("manifest*.json"))
         raise RunFailed(f"{line}; nothing half-written was kept: fix the cause and run "
-                        f"`knotledger run {spec.path or 'SPEC'} --out {out} --resume`") from None
+                        f"`{again}{' --resume' if started else ''}`") from None
 
 
 def _locked_run(spec: Spec, out: Path, *, jobs: int, resume: bool,
