@@ -89,6 +89,11 @@ def _named(err: OSError, path: Path) -> OSError:
     return new
 
 
+def _leftover(name: str) -> bool:
+    """Files a killed start may leave in a directory that holds no census yet."""
+    return name == LOCK_NAME or (name.startswith(".manifest") and ".tmp-" in name)
+
+
 def _write_json_atomic(path: Path, obj: dict) -> None:
     tmp = path.with_name(f".{path.name}.tmp-{os.getpid()}")
     try:
@@ -155,7 +160,7 @@ class CensusStore:
     def create(self, identity: dict, info: dict) -> None:
         """Start a new census (or join one as a new shard); never overwrite."""
         existing = self._manifests() if self.dir.exists() else []
-        if self.dir.exists() and any(p.name != LOCK_NAME for p in self.dir.iterdir()):
+        if self.dir.exists() and any(not _leftover(p.name) for p in self.dir.iterdir()):
             if not existing:
                 raise StoreError(f"{self.dir}: directory is not empty and holds no census manifest; "
                                  "choose a new --out directory")
@@ -166,8 +171,9 @@ class CensusStore:
         self.dir.mkdir(parents=True, exist_ok=True)
         self.manifest = {"format": FORMAT, "census": identity, **info, "chunks": {},
                          "shard": list(self.shard) if self.shard else None, "knots": None}
-        self._ensure_layout()
+        # the manifest first: a run killed while laying out the tables can be resumed
         _write_json_atomic(self.manifest_path, self.manifest)
+        self._ensure_layout()
 
     def resume(self, identity: dict, info: dict) -> None:
         """Reopen a census (merging shard manifests when this writer is the whole census)."""
