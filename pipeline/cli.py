@@ -71,6 +71,10 @@ def main(argv: list[str] | None = None) -> int:
         return 2
     except BrokenPipeError:
         return 0
+    except OSError as err:  # a file system fault the command did not expect: one line
+        where = f"{err.filename}: " if err.filename is not None else ""
+        sys.stderr.write(f"knotledger {args.command}: error: {where}{err.strerror or err}\n")
+        return 1
     except KeyboardInterrupt:
         sys.stderr.write("knotledger: interrupted\n")
         return 130

@@ -218,7 +218,11 @@ def _tiny_census(tmp_path: Path, rows: list[dict]) -> Path:
                         ("determinant_text", pa.string()), ("invariant_factors", pa.list_(pa.string()))])
     for t in ("diagrams", "colorings", "knots", "rejects"):
         (out / t).mkdir(parents=True)
-    pq.write_table(pa.Table.from_pylist(rows, schema=schema), out / "diagrams" / "part-0.parquet")
+    part = out / "diagrams" / "part-c00000000.parquet"
+    pq.write_table(pa.Table.from_pylist(rows, schema=schema), part)
+    # readers read only what a manifest commits (pipeline.census.reader.table_files)
+    manifest = {"chunks": {"0": {"parts": {"diagrams": {"bytes": part.stat().st_size}}}}}
+    (out / "manifest.json").write_text(json.dumps(manifest))
     return out
 
 

@@ -20,6 +20,8 @@ from pipeline.census.run import run_census
 from pipeline.census.spec import load_spec
 from pipeline.census.store import read_table
 
+from _faults import DieOnce, Each, SlowRow, StuckRow
+
 SPEC = """\
 [census]
 name = "test-census"
@@ -200,9 +202,9 @@ def test_sigkill_mid_run_then_resume_matches_uninterrupted(reference, tmp_path):
     _, c = reference
     spec = _write(tmp_path)
     out = tmp_path / "out"
-    env = {**os.environ, "KNOTLEDGER_TEST_CHUNK_SLEEP": "0.3"}
-    proc = subprocess.Popen([sys.executable, "-m", "pipeline", "run", str(spec), "--out", str(out),
-                             "--jobs", "1", "--quiet"], env=env, start_new_session=True)
+    driver = Path(__file__).with_name("_driver.py")
+    proc = subprocess.Popen([sys.executable, str(driver), str(spec), str(out), "--pause", "0.05"],
+                            start_new_session=True)
     deadline = time.monotonic() + 60
     committed = 0
     while time.monotonic() < deadline and committed < 3:
@@ -217,7 +219,7 @@ def test_sigkill_mid_run_then_resume_matches_uninterrupted(reference, tmp_path):
     assert 3 <= len(manifest["chunks"]) < 10, "the run was not interrupted mid-way"
     assert cli_main(["run", str(spec), "--out", str(out), "--resume", "--quiet"]) == 0
     assert _contents(out) == c
-    assert not list((out / "_tmp").iterdir())
+    assert not (out / "_tmp").exists()
 
 
 def test_two_shards_then_merge_equal_one_run(reference, tmp_path):
@@ -233,13 +235,20 @@ def test_two_shards_then_merge_equal_one_run(reference, tmp_path):
     assert _contents(out) == c
 
 
-def test_dask_local_cluster_equals_loky(reference, tmp_path):
+def test_dask_cluster_of_two_processes_retries_a_killed_worker_and_equals_loky(reference, tmp_path):
+    """Two dask worker processes on loopback, the census directory as the shared store;
+    the worker computing row 20 dies mid-chunk (os._exit) once: dask reschedules its
+    chunk and every column equals the loky run."""
     distributed = pytest.importorskip("distributed")
     _, c = reference
     spec = load_spec(_write(tmp_path))
-    with distributed.LocalCluster(n_workers=1, threads_per_worker=1, processes=False,
-                                  dashboard_address=None) as cluster:
-        run_census(spec, tmp_path / "out", scheduler=cluster.scheduler_address, quiet=True)
+    marker = tmp_path / "died-once"
+    with distributed.LocalCluster(n_workers=2, threads_per_worker=1, processes=True,
+                                  host="127.0.0.1", dashboard_address=None,
+                                  silence_logs=50) as cluster:
+        run_census(spec, tmp_path / "out", scheduler=cluster.scheduler_address, quiet=True,
+                   fault=DieOnce(20, marker))
+    assert marker.exists(), "no worker was killed: the test did not test a retry"
     assert _contents(tmp_path / "out") == c
 
 
@@ -261,16 +270,9 @@ def test_chunk_timeout_marks_rows_and_run_continues(tmp_path, monkeypatch):
     spec = tmp_path / "census.toml"
     spec.write_text('[census]\nchunk_size = 6\ntimeout = 1\nmax_modulus = 5\n'
                     '[[family]]\nkind = "two_bridge"\nalpha = [2, 11]\n')  # 41 rows, 7 chunks
-    monkeypatch.setenv("KNOTLEDGER_TEST_SLOW_ROW", "8:30")      # interruptible (Python)
-    monkeypatch.setenv("KNOTLEDGER_TEST_STUCK_ROW", "20:30")    # deaf to SIGALRM: killed
-    from joblib.externals.loky import get_reusable_executor
-    get_reusable_executor(max_workers=2, kill_workers=True).shutdown(wait=True, kill_workers=True)
-    t0 = time.monotonic()
-    try:
-        run_census(load_spec(spec), tmp_path / "out", jobs=2, quiet=True)
-    finally:  # workers spawned with the test hooks in their environment must not be reused
-        get_reusable_executor(max_workers=2, kill_workers=True).shutdown(wait=True, kill_workers=True)
-    assert time.monotonic() - t0 < 25
+    fault = Each(SlowRow(8, 30),      # interruptible (Python)
+                 StuckRow(20, 30))    # deaf to SIGALRM: killed by the parent
+    run_census(load_spec(spec), tmp_path / "out", jobs=2, quiet=True, fault=fault)
     rows = {r["row_id"]: r for r in read_table(tmp_path / "out", "diagrams").to_pylist()}
     # chunk 1 (rows 6..11): rows 6, 7 done; 8 timed out; 9..11 given up
     assert rows[7]["status"] == "ok" and rows[8]["status"] == "skipped: chunk timeout 1 s"
@@ -325,3 +327,33 @@ def test_resume_keeps_command_line_budgets_and_refuses_different_ones(tmp_path):
     assert m["census"]["options"]["timeout"] == 50.0
     with pytest.raises(KnotLedgerError, match="options differs"):
         run_census(load_spec(spec), out, resume=True, overrides={"timeout": 5.0}, quiet=True)
+
+
+def test_a_failed_commit_stops_the_run_and_is_not_a_dead_worker(reference, tmp_path, monkeypatch, capsys):
+    # An Arrow type error while committing chunk 2 used to be taken for a crashed worker:
+    # the chunk was retried and the run went on.  Now the run stops (one line, exit 1),
+    # chunk 2 is not committed, no row says "worker process died", and --resume completes.
+    import pyarrow as pa
+    import pipeline.census.store as store_mod
+    _, c = reference
+    spec = _write(tmp_path)
+    out = tmp_path / "out"
+    real, calls = store_mod.to_arrow, []
+
+    def to_arrow(table, rows, meta):
+        calls.append(table)
+        if rows and rows[0].get("row_id") == 12 and table == "diagrams":
+            raise pa.ArrowTypeError("object of type <class 'str'> cannot be converted to int")
+        return real(table, rows, meta)
+
+    monkeypatch.setattr(store_mod, "to_arrow", to_arrow)
+    capsys.readouterr()
+    assert cli_main(["run", str(spec), "--out", str(out), "--quiet"]) == 1
+    err = capsys.readouterr().err
+    assert err.count("\n") == 1 and "chunk 2: diagrams rows do not fit the schema (ArrowTypeError" in err
+    manifest = json.loads((out / "manifest.json").read_text())
+    assert "2" not in manifest["chunks"]
+    monkeypatch.undo()
+    assert not [r for r in read_table(out, "diagrams").to_pylist() if "died" in (r["status"] or "")]
+    assert cli_main(["run", str(spec), "--out", str(out), "--resume", "--quiet"]) == 0
+    assert _contents(out) == c

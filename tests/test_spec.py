@@ -159,3 +159,29 @@ def test_csv_without_diagram_column_is_a_spec_error(tmp_path):
     (tmp_path / "x.csv").write_text("notation\ntorus:2,3\n")
     with pytest.raises(SpecError, match="no column 'diagram'"):
         load_spec(_spec(tmp_path, '[[family]]\nkind = "file"\npath = "x.csv"\n'))
+
+
+def test_montesinos_tangles_with_signed_or_padded_denominators_are_accepted(tmp_path, capsys):
+    # montesinos:1/-3 is valid notation (the tangle -1/3 written with the sign below);
+    # the spec must hand it on instead of failing on Fraction("1/-3").  The parser is the
+    # outside check: the notation each row carries builds a diagram with the crossings of
+    # the tangles |β| (continued-fraction length) summed: 1/-3 -> 3, 1/05 -> 5, 1/3 -> 3.
+    spec = parse_spec('[[family]]\nkind = "montesinos"\ntangles = ["1/-3", "1/05", "-1/-3"]\n')
+    (item,) = iter_items(spec)
+    assert item.notation == "montesinos:1/-3,1/05,-1/-3"
+    assert parse(item.notation).n_crossings == 3 + 5 + 3
+    path = _spec(tmp_path, '[[family]]\nkind = "montesinos"\ntangles = ["1/-3", "2/5", "1/3"]\n')
+    assert count_items(load_spec(path)) == 1
+
+
+@pytest.mark.parametrize("tok", ["1/0", "3/-0", "2/ 00"])
+def test_montesinos_denominator_zero_is_refused_by_value(tok):
+    with pytest.raises(SpecError, match="denominator 0"):
+        parse_spec(f'[[family]]\nkind = "montesinos"\ntangles = ["{tok}", "1/3"]\n')
+
+
+def test_montesinos_bad_tangle_in_cli_is_one_line_exit_2(tmp_path, capsys):
+    path = _spec(tmp_path, '[[family]]\nkind = "montesinos"\ntangles = ["1/-0", "1/3"]\n')
+    assert cli_main(["run", str(path), "--out", str(tmp_path / "o")]) == 2
+    err = capsys.readouterr().err
+    assert err.count("\n") == 1 and "denominator 0" in err and "Traceback" not in err

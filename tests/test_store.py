@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import json
+from pathlib import Path
 
 import pyarrow as pa
 import pyarrow.parquet as pq
@@ -111,3 +112,44 @@ def test_determinant_beyond_int64_is_exact_text_and_null_int():
     t = to_arrow("diagrams", [row], {})
     assert t.column("determinant_text").to_pylist() == [str(b)]
     assert t.schema.field("invariant_factors").type == pa.list_(pa.string())
+
+
+def test_a_failed_commit_removes_the_chunks_parts_and_keeps_the_manifest(tmp_path, monkeypatch):
+    import errno
+    import os
+    import pipeline.census.store as store_mod
+    s = _store(tmp_path)
+    res = _chunk('[[family]]\nkind = "torus"\np = 2\nq = [3, 4]\n')
+    before = s.manifest_path.read_bytes()
+    real = store_mod.os.replace
+
+    def replace(src, dst):
+        if Path(dst).name == "manifest.json":      # the parts are in, the manifest write fails
+            raise OSError(errno.ENOSPC, os.strerror(errno.ENOSPC))
+        return real(src, dst)
+
+    monkeypatch.setattr(store_mod.os, "replace", replace)
+    with pytest.raises(OSError) as info:
+        s.write_chunk(0, res)
+    assert info.value.errno == errno.ENOSPC and info.value.filename == str(s.manifest_path)
+    monkeypatch.undo()
+    assert s.manifest_path.read_bytes() == before and s.committed() == set()
+    assert not (s.dir / part_name("diagrams", 0)).exists()
+    assert not (s.dir / part_name("colorings", 0)).exists()
+    assert not list(s.dir.glob(".manifest*")) and not list((s.dir / "_tmp").iterdir())
+    s.write_chunk(0, res)                           # the cause gone, the same chunk commits
+    assert read_table(s.dir, "diagrams").num_rows == 2
+
+
+def test_lock_file_alone_does_not_make_a_directory_foreign_and_spill_dirs_are_cleaned(tmp_path):
+    from pipeline.census.lock import census_lock
+    d = tmp_path / "c"
+    with census_lock(d):
+        s = CensusStore(d)
+        s.create(IDENTITY, {})
+    (d / "_tmp" / "knots-build").mkdir()
+    (d / "_tmp" / "knots-build" / "batch-0.arrow").write_bytes(b"x")
+    s.prepare()
+    assert not list((d / "_tmp").iterdir())
+    s.close()
+    assert not (d / "_tmp").exists()

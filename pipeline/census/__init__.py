@@ -5,7 +5,9 @@ Hands on: a census directory — Parquet parts per table, ``manifest.json`` — 
 :func:`open_census`, the tables read back.
 
 Modules: :mod:`.spec` and :mod:`.spec_files` (the spec), :mod:`.worklist` (the deterministic
-work list), :mod:`.run` (chunks, scheduling, resume), :mod:`.worker` (one chunk of rows),
+work list), :mod:`.run` (chunks, resume, shards, exit codes), :mod:`.local` (the local scheduler:
+crashes, timeouts, retries), :mod:`.lock` (one writer per directory), :mod:`.worker` (one
+chunk of rows),
 :mod:`.store` (atomic Parquet parts + manifest), :mod:`.knots_build` (the knots table in
 bounded memory), :mod:`.reader` (reading a census back), :mod:`.schemas` (the Arrow
 schemas).  Storage never computes invariants: the worker calls the stages below.

@@ -2,8 +2,11 @@
 
 A census directory (written by ``knotledger run``) holds one directory of Parquet part
 files per table -- ``diagrams/``, ``colorings/``, ``knots/``, ``rejects/`` -- and a
-``manifest.json``.  Every part file of a table is read (the store guarantees that a
-directory never lists a chunk twice).  Exact integers stay exact: a column ``X`` that
+``manifest.json`` (or, while shards are still running, one ``manifest.shard-I-of-N.json``
+per shard).  A part file counts only when a manifest commits it (same name, same size):
+:func:`table_files` is the one place that lists the parts of a table, and every reader
+(``open_census``, ``query``, ``check``, ``fit``, ``report``) goes through it, so a part
+renamed into place by a run that died before its manifest write is never read.  Exact integers stay exact: a column ``X`` that
 overflows int64 has a text twin ``X_text`` and :func:`exact_int` prefers it.
 
 Example
@@ -44,14 +47,52 @@ def census_path(directory: str | Path) -> Path:
     return path
 
 
+def _manifests(directory: Path) -> list[dict]:
+    """The parsed manifests of a census directory: ``manifest.json`` first, then shards."""
+    paths = sorted(directory.glob("manifest*.json"), key=lambda p: (p.name != "manifest.json", p.name))
+    out = []
+    for path in paths:
+        try:
+            out.append(json.loads(path.read_text(encoding="utf-8")))
+        except (OSError, ValueError) as err:
+            raise QueryError(f"census: cannot read {path} ({err})") from err
+    return out
+
+
+def _committed(path: Path, meta: dict) -> bool:
+    try:
+        return path.is_file() and path.stat().st_size == meta.get("bytes")
+    except OSError:
+        return False
+
+
 def table_files(directory: str | Path, table: str) -> list[Path]:
-    """The Parquet part files of ``table`` in a census directory, sorted by name."""
+    """The Parquet part files of ``table`` that a manifest commits, sorted by name.
+
+    The zero-row ``part-schema.parquet`` (which carries the schema) is always included
+    when present; a chunk part counts when a manifest lists it with its byte size; the
+    knots part when ``manifest.json`` records the knots table.  Files in the table
+    directory that no manifest lists (a crash between a rename and the manifest write)
+    are ignored.
+    """
     if table not in TABLES:
         raise QueryError(f"census: unknown table {table!r} (tables: {', '.join(TABLES)})")
-    tdir = Path(directory) / table
+    directory = Path(directory)
+    tdir = directory / table
     if not tdir.is_dir():
         return []
-    return sorted(p for p in tdir.glob("*.parquet") if p.is_file())
+    files = {tdir / "part-schema.parquet"} if (tdir / "part-schema.parquet").is_file() else set()
+    manifests = _manifests(directory)
+    for manifest in manifests:
+        for key, entry in (manifest.get("chunks") or {}).items():
+            meta = (entry.get("parts") or {}).get(table)
+            path = tdir / f"part-c{int(key):08d}.parquet"
+            if meta and _committed(path, meta):
+                files.add(path)
+    knots = manifests[0].get("knots") if manifests and table == "knots" else None
+    if knots and knots.get("rows") and _committed(tdir / "part-knots.parquet", knots):
+        files.add(tdir / "part-knots.parquet")
+    return sorted(files)
 
 
 def _read_table(directory: Path, table: str):

@@ -2,19 +2,31 @@
 
 The work list (:mod:`pipeline.census.spec`) is cut into chunks of the spec's ``chunk_size``
 (never derived from ``--jobs``, so every machine cuts the same chunks).  Locally the
-chunks run in worker processes of joblib's loky executor (``--jobs N``); with
-``--scheduler ADDRESS`` they run on a dask.distributed cluster through joblib's dask
-backend.  The parent only schedules, writes parts and commits them
-(:mod:`pipeline.census.store`); it never computes an invariant.
+chunks run in worker processes of joblib's loky executor (``--jobs N``,
+:mod:`pipeline.census.local`); with ``--scheduler ADDRESS`` they run on a
+dask.distributed cluster through joblib's dask backend.  The parent only schedules,
+writes parts and commits them (:mod:`pipeline.census.store`); it never computes an
+invariant.
 
-Isolation: a diagram failure is its row's status (:mod:`pipeline.census.worker`); a chunk
-past its ``timeout`` gives up its remaining rows inside the worker; a worker that
-does not come back ``timeout/2 + 5`` seconds after that is killed with its process,
-its chunk is committed with status ``skipped: chunk timeout`` rows, and the other
-chunks that were in flight are resubmitted.  A worker that dies (segfault, OOM) has
-its chunk retried alone once, then recorded as ``error: worker process died``.  On a
-dask cluster only the in-worker timeout applies (threads cannot be killed; dask itself
-restarts dead worker processes).
+One writer per directory: the whole run -- opening, every chunk, the merge of shard
+manifests and the knots build -- holds the census lock (:mod:`pipeline.census.lock`),
+exclusively for the whole census and shared for a shard (``--shard I/N``), so shards
+run side by side while a merge waits for them.  A busy lock refuses the run with one
+line naming the holder, or waits for it with ``--wait``.
+
+Isolation and timeouts: see :mod:`pipeline.census.worker` (a diagram failure is its
+row's status; the chunk ``timeout`` inside the worker) and :mod:`pipeline.census.local`
+(a worker past ``timeout + max(5, timeout / 2)`` seconds is killed; a dead worker's
+chunk is retried alone once).  On a dask cluster only the in-worker timeout applies,
+checked between diagrams (dask runs tasks in worker threads, where no ``SIGALRM`` can
+be delivered), and dask itself reschedules the chunk of a worker process that died.
+
+Exit codes of ``knotledger run``: 0 the census is complete (or the shard is done);
+1 the run failed or could not start -- an OS error while writing (full disk, read-only
+or vanished directory, permission denied), the lock held by another writer, chunks still
+missing -- with one line on stderr; what was committed stays and ``--resume`` completes
+the census once the cause is gone; 2 bad input or usage (spec, input files, options,
+a directory that is not this census).
 """
 
 from __future__ import annotations
@@ -24,14 +36,23 @@ import hashlib
 import json
 import sys
 import time
-from concurrent.futures import FIRST_COMPLETED, wait
 from pathlib import Path
-from typing import Iterator, Optional
+from typing import Callable, Iterator, Optional
 
 from ..errors import KnotLedgerError, SpecError
-from .spec import Spec, WorkItem, count_items, iter_chunks, load_spec
+from .lock import LockBusy, census_lock
+from .spec import Spec, count_items, iter_chunks, load_spec
 
-__all__ = ["add_arguments", "main", "run_census", "parse_shard", "versions"]
+__all__ = ["add_arguments", "main", "run_census", "parse_shard", "versions", "RunFailed",
+           "CLASSIFY_VERSION"]
+
+#: Version of the knot keys and the knots table (pipeline.identify.classify); part of
+#: the census identity.  Bump it when knot keys or knots rows change.
+CLASSIFY_VERSION = "1"
+
+
+class RunFailed(KnotLedgerError):
+    """The run stopped before the census was complete; what was committed stays (exit 1)."""
 
 
 def add_arguments(parser: argparse.ArgumentParser) -> None:
@@ -47,6 +68,8 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
     parser.add_argument("--jones-budget", type=int, help="override the spec's jones_budget")
     parser.add_argument("--min-colors-budget", type=int, help="override the spec's min_colors_budget")
     parser.add_argument("--timeout", type=float, help="override the spec's timeout (seconds per chunk)")
+    parser.add_argument("--wait", action="store_true",
+                        help="wait for another writer of the directory to finish instead of refusing")
     parser.add_argument("--quiet", action="store_true", help="no progress output")
 
 
@@ -68,10 +91,8 @@ def versions() -> dict:
     from .. import __version__
     from ..invariants.all import ALGORITHM_VERSIONS
     from .schemas import SCHEMA_VERSION
-    out = {"knotledger": __version__, "schema": SCHEMA_VERSION, "algorithms": dict(ALGORITHM_VERSIONS)}
-    from ..identify import classify
-    out["classify"] = str(getattr(classify, "ALGORITHM_VERSION", "1"))
-    return out
+    return {"knotledger": __version__, "schema": SCHEMA_VERSION,
+            "algorithms": dict(ALGORITHM_VERSIONS), "classify": CLASSIFY_VERSION}
 
 
 def _source_hashes() -> dict:
@@ -127,77 +148,8 @@ class _Progress:
             self.bar.close()
 
 
-def _timeout_result(chunk: int, items: list[WorkItem], timeout: float, why: str) -> dict:
-    from .worker import _reject, timeout_row
-    out = {"chunk": chunk, "diagrams": [], "colorings": [], "rejects": []}
-    for item in items:
-        if item.error is not None:
-            out["rejects"].append(_reject(item, item.error))
-        else:
-            row = timeout_row(item, timeout)
-            if why:
-                row["status"] = why
-            out["diagrams"].append(row)
-    out["stats"] = {"items": len(items), "seconds": None, "timed_out": True, "skipped_links": 0}
-    return out
-
-
-def _run_local(pending: Iterator, opts: dict, jobs: int, commit) -> None:
-    """Run chunks on loky worker processes, killing a worker stuck past the hard limit."""
-    from joblib.externals.loky import get_reusable_executor
-    from .worker import compute_chunk
-    timeout = opts.get("timeout")
-    hard = None if not timeout else timeout + max(5.0, timeout / 2)
-    retry: list = []          # (chunk, items, crashes) to run again
-    in_flight: dict = {}      # future -> (chunk, items, start, crashes)
-    executor = get_reusable_executor(max_workers=jobs, reuse=True)
-    source = iter(pending)
-    exhausted = False
-    while True:
-        solo = any(c > 0 for _, _, _, c in in_flight.values()) or (retry and retry[0][2] > 0)
-        limit = 1 if solo else jobs
-        while len(in_flight) < limit and (retry or not exhausted):
-            if retry:
-                chunk, items, crashes = retry.pop(0)
-            else:
-                nxt = next(source, None)
-                if nxt is None:
-                    exhausted = True
-                    break
-                (chunk, items), crashes = nxt, 0
-            fut = executor.submit(compute_chunk, chunk, items, opts)
-            in_flight[fut] = (chunk, items, time.monotonic(), crashes)
-            if crashes:
-                break
-        if not in_flight:
-            return
-        done, _ = wait(list(in_flight), timeout=0.5, return_when=FIRST_COMPLETED)
-        broken = False
-        for fut in done:
-            chunk, items, _, crashes = in_flight.pop(fut)
-            try:
-                commit(fut.result())
-            except Exception as err:  # a dead worker breaks the pool: retry alone, then give up
-                broken = True
-                if crashes >= 1:
-                    commit(_timeout_result(chunk, items, timeout or 0,
-                                           f"error: worker process died ({type(err).__name__})"))
-                else:
-                    retry.append((chunk, items, crashes + 1))
-        now = time.monotonic()
-        stuck = [f for f, (_, _, t0, _) in in_flight.items() if hard and now - t0 > hard]
-        if stuck or broken:
-            executor.shutdown(wait=False, kill_workers=True)
-            for fut, (chunk, items, _, crashes) in list(in_flight.items()):
-                if fut in stuck:
-                    commit(_timeout_result(chunk, items, timeout, ""))
-                else:
-                    retry.insert(0, (chunk, items, crashes))
-            in_flight.clear()
-            executor = get_reusable_executor(max_workers=jobs, reuse=True)
-
-
-def _run_dask(pending: Iterator, opts: dict, address: str, commit) -> None:
+def _run_dask(pending: Iterator, opts: dict, address: str, commit,
+              fault: Optional[Callable] = None) -> None:
     """Run chunks on a dask.distributed cluster through joblib's dask backend."""
     try:
         from dask.distributed import Client
@@ -212,7 +164,7 @@ def _run_dask(pending: Iterator, opts: dict, address: str, commit) -> None:
     try:
         with parallel_config(backend="dask"):
             results = Parallel(return_as="generator_unordered", pre_dispatch="2*n_jobs")(
-                delayed(compute_chunk)(chunk, items, opts) for chunk, items in pending)
+                delayed(compute_chunk)(chunk, items, opts, fault=fault) for chunk, items in pending)
             for result in results:
                 commit(result)
     finally:
@@ -234,17 +186,77 @@ def build_knots(store) -> None:
     store.write_knots(knots, "built by pipeline.identify.classify.build_knots_table")
 
 
+def os_error_line(err: OSError) -> str:
+    """One line naming the path and the cause of an OS error."""
+    import errno as errno_mod
+    import os
+    code = err.errno
+    cause = os.strerror(code) if code else (err.strerror or str(err).splitlines()[0])
+    tag = f" ({errno_mod.errorcode.get(code, code)})" if code else ""
+    if err.filename is None:
+        return f"{cause}{tag}"
+    return f"{err.filename}: {cause}{tag}"
+
+
 def run_census(spec: Spec, out: str | Path, *, jobs: int = 1, resume: bool = False,
                shard: Optional[tuple[int, int]] = None, scheduler: Optional[str] = None,
-               overrides: Optional[dict] = None, quiet: bool = False) -> dict:
-    """Run (or resume) a census; return the final manifest."""
-    from .store import CensusStore
+               overrides: Optional[dict] = None, quiet: bool = False, wait: bool = False,
+               fault: Optional[Callable] = None) -> dict:
+    """Run (or resume) a census under the directory lock; return the final manifest.
+
+    Parameters
+    ----------
+    spec : Spec
+        The validated spec.
+    out : str or Path
+        The census directory.
+    jobs, resume, shard, scheduler, overrides, quiet, wait
+        As the command-line options of ``knotledger run``.
+    fault : callable, optional
+        Passed to :func:`pipeline.census.worker.compute_chunk` (tests inject faults).
+
+    Raises
+    ------
+    SpecError, StoreError
+        Bad input: the spec, an input file, options, a directory that is not this census.
+    RunFailed
+        The run stopped: an OS error while writing, the lock held (``LockBusy``), or
+        chunks still missing.  Everything committed stays; ``--resume`` continues.
+    """
     if jobs < 1:
         raise SpecError(f"--jobs {jobs}: need at least 1")
+    out = Path(out)
+    if resume and not out.is_dir():
+        from .store import StoreError
+        raise StoreError(f"{out}: no census manifest here; run without --resume to start one")
+    from .store import WriteError
+    inputs = {str(p) for p in spec.input_files()}
+    try:
+        with census_lock(out, shared=shard is not None, wait=wait,
+                         role="shard %d/%d" % shard if shard else ("resume" if resume else "run")):
+            return _locked_run(spec, out, jobs=jobs, resume=resume, shard=shard,
+                               scheduler=scheduler, overrides=overrides, quiet=quiet, fault=fault)
+    except (LockBusy, WriteError) as err:
+        raise RunFailed(str(err)) from None
+    except OSError as err:
+        line = os_error_line(err)
+        if err.filename is not None and str(err.filename) in inputs:
+            raise SpecError(f"input file {line}") from None
+        again = f"knotledger run {spec.path or 'SPEC'} --out {out}"
+        again += f" --shard {shard[0]}/{shard[1]}" if shard else ""
+        started = out.is_dir() and any(out.glob("manifest*.json"))
+        raise RunFailed(f"{line}; nothing half-written was kept: fix the cause and run "
+                        f"`{again}{' --resume' if started else ''}`") from None
+
+
+def _locked_run(spec: Spec, out: Path, *, jobs: int, resume: bool,
+                shard: Optional[tuple[int, int]], scheduler: Optional[str],
+                overrides: Optional[dict], quiet: bool, fault: Optional[Callable]) -> dict:
+    from .store import CensusStore
     opts = {"max_modulus": spec.max_modulus, "jones_budget": spec.jones_budget,
             "min_colors_budget": spec.min_colors_budget, "timeout": spec.timeout}
     if resume or shard:  # budgets given on the command line at the start stay in force
-        opts.update(_started_options(Path(out)))
+        opts.update(_started_options(out))
     for key, val in (overrides or {}).items():
         if val is not None:
             opts[key] = val
@@ -252,7 +264,26 @@ def run_census(spec: Spec, out: str | Path, *, jobs: int = 1, resume: bool = Fal
     identity = _identity(spec, opts)
     info = {"spec_text": spec.text, "spec_name": spec.name, "code": _source_hashes()}
     (store.resume if resume else store.create)(identity, info)
-    store.prepare()
+    try:
+        store.prepare()
+        _compute(spec, store, opts, jobs=jobs, resume=resume, scheduler=scheduler,
+                 quiet=quiet, fault=fault)
+        if shard is None:
+            n_chunks = -(-identity["n_items"] // spec.chunk_size)
+            missing = n_chunks - len(store.committed())
+            if missing:
+                raise RunFailed(f"{out}: {missing} chunk(s) still missing; run --resume again")
+            build_knots(store)
+    finally:
+        store.close()
+    return store.manifest
+
+
+def _compute(spec: Spec, store, opts: dict, *, jobs: int, resume: bool,
+             scheduler: Optional[str], quiet: bool, fault: Optional[Callable]) -> None:
+    """Compute and commit every chunk this writer owns that is not committed yet."""
+    from .local import LocalScheduler
+    shard = store.shard
     done = store.committed()
     label = f"knotledger run {spec.name}" + (f" [shard {shard[0]}/{shard[1]}]" if shard else "")
     total = sum(len(items) for j, items in iter_chunks(spec) if store.owns(j))
@@ -267,31 +298,29 @@ def run_census(spec: Spec, out: str | Path, *, jobs: int = 1, resume: bool = Fal
 
     try:
         if scheduler:
-            _run_dask(pending, opts, scheduler, commit)
+            _run_dask(pending, opts, scheduler, commit, fault)
         else:
-            _run_local(pending, opts, jobs, commit)
+            LocalScheduler(opts, jobs, commit, fault=fault).run(pending)
     finally:
         progress.close()
     runs = store.manifest.setdefault("timings", [])
     runs.append({"started_unix": round(t0, 3), "seconds": round(time.time() - t0, 3),
                  "jobs": jobs, "scheduler": scheduler, "resume": resume})
     store.save()
-    if shard is None:
-        n_chunks = -(-identity["n_items"] // spec.chunk_size)
-        missing = n_chunks - len(store.committed())
-        if missing:
-            raise KnotLedgerError(f"{out}: {missing} chunk(s) still missing; run --resume again")
-        build_knots(store)
-    return store.manifest
 
 
 def main(args: argparse.Namespace) -> int:
+    """``knotledger run``: exit 0 done, 1 run failed (resumable), 2 bad input."""
     spec = load_spec(args.spec)
     overrides = {"jones_budget": args.jones_budget, "min_colors_budget": args.min_colors_budget,
                  "timeout": args.timeout}
-    manifest = run_census(spec, args.out, jobs=args.jobs, resume=args.resume,
-                          shard=parse_shard(args.shard), scheduler=args.scheduler,
-                          overrides=overrides, quiet=args.quiet)
+    try:
+        manifest = run_census(spec, args.out, jobs=args.jobs, resume=args.resume,
+                              shard=parse_shard(args.shard), scheduler=args.scheduler,
+                              overrides=overrides, quiet=args.quiet, wait=args.wait)
+    except RunFailed as err:
+        sys.stderr.write(f"knotledger run: error: {err}\n")
+        return 1
     if not args.quiet:
         rows = {t: sum(e["parts"].get(t, {}).get("rows", 0) for e in manifest["chunks"].values())
                 for t in ("diagrams", "colorings", "rejects")}

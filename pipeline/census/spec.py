@@ -47,7 +47,6 @@ import hashlib
 import re
 import tomllib
 from dataclasses import dataclass, field
-from fractions import Fraction
 from pathlib import Path
 from typing import Any, Optional
 
@@ -210,12 +209,15 @@ def _range(where: str, key: str, val: Any) -> tuple[int, int]:
 
 
 def _fraction_text(where: str, key: str, tok: Any) -> str:
+    """A Montesinos tangle entry as notation text: ``β/α`` or an integer (signs allowed
+    on either side, as in ``montesinos:1/-3``); the denominator must be nonzero."""
     if isinstance(tok, int) and not isinstance(tok, bool):
         tok = str(tok)
-    if not isinstance(tok, str) or not re.fullmatch(r"\s*[+-]?\d+\s*(/\s*[+-]?\d+\s*)?", tok):
+    m = (re.fullmatch(r"\s*([+-]?\d+)\s*(?:/\s*([+-]?\d+)\s*)?", tok)
+         if isinstance(tok, str) else None)
+    if m is None:
         raise SpecError(f"{where}: {key} entry {tok!r} is not a fraction 'β/α' or an integer")
-    f = Fraction(tok.replace(" ", "")) if "/0" not in tok.replace(" ", "") else None
-    if f is None:
+    if m.group(2) is not None and int(m.group(2)) == 0:
         raise SpecError(f"{where}: {key} entry {tok!r} has denominator 0")
     return tok.replace(" ", "")
 

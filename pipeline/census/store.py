@@ -3,19 +3,26 @@
 Layout (README.md, "Store layout")::
 
     DIR/manifest.json                      the census (or manifest.shard-I-of-N.json)
+    DIR/.knotledger.lock                   the writer lock (pipeline.census.lock)
     DIR/diagrams/part-schema.parquet       zero rows, carries the schema (always there)
     DIR/diagrams/part-c00000017.parquet    the rows of chunk 17
     DIR/colorings/...  DIR/rejects/...     likewise
     DIR/knots/part-knots.parquet           built after every chunk is in
-    DIR/_tmp/                              parts being written (never read)
+    DIR/_tmp/                              parts being written (never read; removed
+                                           when a run ends)
 
 Commit protocol for a chunk: write each non-empty part to ``_tmp/``, ``fsync``,
 ``os.replace`` it into its table directory, then rewrite the manifest (temp file +
 ``os.replace``) with the chunk's row counts, byte sizes and SHA-256 checksums.  A
-chunk is committed exactly when the manifest lists it.  :meth:`CensusStore.prepare`
-(every start and resume) deletes the parts the manifest does not list, so after a
-SIGKILL at any moment a reader never sees a chunk twice and a resume recomputes
-exactly the uncommitted chunks.  Shards keep their own manifest, touch only the
+chunk is committed exactly when the manifest lists it: readers list only the parts a
+manifest commits (:func:`pipeline.census.reader.table_files`), and
+:meth:`CensusStore.prepare` (every start and resume) deletes the parts the manifest
+does not list, so after a SIGKILL at any moment a reader never sees a chunk twice or an
+uncommitted one, and a resume recomputes exactly the uncommitted chunks.  A write that
+fails (a full disk, a read-only or vanished directory) removes what this chunk had
+already published and re-raises, leaving the manifest as it was.  The knots table is
+written beside (``_tmp/``) and renamed into place, so a reader sees the old table or
+the new one, never half of one.  Shards keep their own manifest, touch only the
 parts of their own chunks, and are merged (idempotently) by a later plain resume.
 """
 
@@ -25,17 +32,18 @@ import hashlib
 import json
 import os
 import re
+import shutil
 from pathlib import Path
 from typing import Iterable, Optional
 
 import pyarrow as pa
 import pyarrow.parquet as pq
 
+from ..errors import KnotLedgerError
+from .lock import LOCK_NAME
 from .schemas import SCHEMA_VERSION, SCHEMAS
 
-from ..errors import KnotLedgerError
-
-__all__ = ["CensusStore", "StoreError", "part_name", "read_table", "FORMAT"]
+__all__ = ["CensusStore", "StoreError", "WriteError", "part_name", "read_table", "FORMAT"]
 
 FORMAT = "knotledger-census/1"
 CHUNK_TABLES = ("diagrams", "colorings", "rejects")
@@ -44,6 +52,10 @@ _PART = re.compile(r"^part-c(\d{8})\.parquet$")
 
 class StoreError(KnotLedgerError):
     """A census directory is missing, foreign, or would be overwritten."""
+
+
+class WriteError(StoreError):
+    """Rows could not be converted to their table's Arrow schema (a failed run, not bad input)."""
 
 
 def part_name(table: str, chunk: int) -> str:
@@ -59,14 +71,45 @@ def _sha256(path: Path) -> str:
     return h.hexdigest()
 
 
+_ERRNO = re.compile(r"\[errno (\d+)\]", re.IGNORECASE)
+
+
+def _named(err: OSError, path: Path) -> OSError:
+    """``err`` with a file name (write errors and Arrow's IO errors carry none)."""
+    if err.filename is not None:
+        return err
+    code = err.errno
+    if code is None:
+        m = _ERRNO.search(str(err))
+        code = int(m.group(1)) if m else None
+    if code is None:
+        return OSError(f"{path}: {err}")
+    new = OSError(code, os.strerror(code), str(path))
+    new.__cause__ = err
+    return new
+
+
+def _leftover(name: str) -> bool:
+    """Files a killed start may leave in a directory that holds no census yet."""
+    return name == LOCK_NAME or (name.startswith(".manifest") and ".tmp-" in name)
+
+
 def _write_json_atomic(path: Path, obj: dict) -> None:
     tmp = path.with_name(f".{path.name}.tmp-{os.getpid()}")
-    with tmp.open("w", encoding="utf-8") as fh:
-        json.dump(obj, fh, indent=1, sort_keys=True)
-        fh.write("\n")
-        fh.flush()
-        os.fsync(fh.fileno())
-    os.replace(tmp, path)
+    try:
+        with tmp.open("w", encoding="utf-8") as fh:
+            json.dump(obj, fh, indent=1, sort_keys=True)
+            fh.write("\n")
+            fh.flush()
+            os.fsync(fh.fileno())
+        os.replace(tmp, path)
+    except OSError as err:
+        raise _named(err, path) from err
+    finally:
+        try:
+            tmp.unlink(missing_ok=True)
+        except OSError:  # the directory itself may be gone
+            pass
 
 
 def to_arrow(table: str, rows: list[dict], metadata: dict[str, str]) -> pa.Table:
@@ -81,9 +124,11 @@ def to_arrow(table: str, rows: list[dict], metadata: dict[str, str]) -> pa.Table
 
 
 def read_table(directory: str | Path, table: str) -> pa.Table:
-    """Every part of ``table`` in a census directory as one Arrow table (by row_id)."""
+    """Every committed part of ``table`` as one Arrow table (sorted by row_id)."""
     import pyarrow.dataset as ds
-    t = ds.dataset(str(Path(directory) / table), format="parquet", schema=SCHEMAS[table]).to_table()
+    from .reader import table_files
+    files = [str(p) for p in table_files(directory, table)]
+    t = ds.dataset(files, format="parquet", schema=SCHEMAS[table]).to_table()
     if "row_id" in t.column_names and t.num_rows:
         t = t.sort_by([("row_id", "ascending")] + ([("modulus", "ascending")] if table == "colorings" else []))
     return t
@@ -115,7 +160,7 @@ class CensusStore:
     def create(self, identity: dict, info: dict) -> None:
         """Start a new census (or join one as a new shard); never overwrite."""
         existing = self._manifests() if self.dir.exists() else []
-        if self.dir.exists() and any(self.dir.iterdir()):
+        if self.dir.exists() and any(not _leftover(p.name) for p in self.dir.iterdir()):
             if not existing:
                 raise StoreError(f"{self.dir}: directory is not empty and holds no census manifest; "
                                  "choose a new --out directory")
@@ -126,8 +171,9 @@ class CensusStore:
         self.dir.mkdir(parents=True, exist_ok=True)
         self.manifest = {"format": FORMAT, "census": identity, **info, "chunks": {},
                          "shard": list(self.shard) if self.shard else None, "knots": None}
-        self._ensure_layout()
+        # the manifest first: a run killed while laying out the tables can be resumed
         _write_json_atomic(self.manifest_path, self.manifest)
+        self._ensure_layout()
 
     def resume(self, identity: dict, info: dict) -> None:
         """Reopen a census (merging shard manifests when this writer is the whole census)."""
@@ -194,11 +240,20 @@ class CensusStore:
                 self._publish(to_arrow(table, [], meta), f"{table}/part-schema.parquet")
 
     def prepare(self) -> None:
-        """Delete every part (and temp file) that the manifest does not list."""
+        """Delete every part (and temp file) that the manifest does not list.
+
+        A shard touches only its own chunks and temp files; the whole census all of them
+        (it runs under the exclusive lock, so no shard is writing).
+        """
         listed = {(t, int(k)) for k, e in self.manifest["chunks"].items() for t in e["parts"]}
+        mine = ".manifest*.tmp-*" if self.shard is None else f".{self.manifest_path.name}.tmp-*"
+        for f in self.dir.glob(mine):  # a manifest write that was killed
+            f.unlink(missing_ok=True)
         tag = self._tmp_tag()
         for f in (self.dir / "_tmp").iterdir():
-            if self.shard is None or f.name.startswith(tag):
+            if f.is_dir() and self.shard is None:  # a knots build that was killed
+                shutil.rmtree(f)
+            elif self.shard is None or f.name.startswith(tag):
                 f.unlink(missing_ok=True)
         for table in CHUNK_TABLES:
             for f in (self.dir / table).iterdir():
@@ -227,25 +282,45 @@ class CensusStore:
             with tmp.open("rb") as fh:
                 os.fsync(fh.fileno())
             os.replace(tmp, self.dir / rel)
+        except OSError as err:
+            raise _named(err, self.dir / rel) from err
         finally:
-            tmp.unlink(missing_ok=True)
+            try:
+                tmp.unlink(missing_ok=True)
+            except OSError:  # the directory itself may be gone
+                pass
         path = self.dir / rel
         return {"rows": table.num_rows, "bytes": path.stat().st_size, "sha256": _sha256(path)}
 
     def committed(self) -> set[int]:
+        """The chunks this writer's manifest commits."""
         return {int(k) for k in self.manifest["chunks"]}
 
     def write_chunk(self, chunk: int, result: dict) -> dict:
         """Publish one chunk's parts, then record it in the manifest (the commit)."""
         meta = self.metadata()
-        parts = {}
-        for table in CHUNK_TABLES:
-            rows = result[table]
-            if rows:
-                parts[table] = self._publish(to_arrow(table, rows, meta), part_name(table, chunk))
-        entry = {"parts": parts, **result["stats"]}
-        self.manifest["chunks"][str(chunk)] = entry
-        _write_json_atomic(self.manifest_path, self.manifest)
+        parts: dict = {}
+        try:
+            for table in CHUNK_TABLES:
+                rows = result[table]
+                if rows:
+                    try:
+                        arrow = to_arrow(table, rows, meta)
+                    except (pa.ArrowException, StoreError) as err:
+                        raise WriteError(f"chunk {chunk}: {table} rows do not fit the schema "
+                                         f"({type(err).__name__}: {str(err).splitlines()[0]})") from err
+                    parts[table] = self._publish(arrow, part_name(table, chunk))
+            entry = {"parts": parts, **result["stats"]}
+            self.manifest["chunks"][str(chunk)] = entry
+            _write_json_atomic(self.manifest_path, self.manifest)
+        except BaseException:  # nothing of a failed chunk stays behind
+            self.manifest["chunks"].pop(str(chunk), None)
+            for table in parts:
+                try:
+                    (self.dir / part_name(table, chunk)).unlink(missing_ok=True)
+                except OSError:
+                    pass
+            raise
         return entry
 
     def write_knots(self, rows: list[dict], note: str) -> None:
@@ -259,7 +334,15 @@ class CensusStore:
         _write_json_atomic(self.manifest_path, self.manifest)
 
     def save(self) -> None:
+        """Rewrite the manifest (atomically)."""
         _write_json_atomic(self.manifest_path, self.manifest)
+
+    def close(self) -> None:
+        """Remove ``_tmp/`` when no writer has anything in it (shards may still)."""
+        try:
+            (self.dir / "_tmp").rmdir()
+        except OSError:
+            pass
 
     def verify(self) -> list[str]:
         """Checksums of every committed part; returns the problems found (empty = intact)."""

@@ -1,31 +1,37 @@
 """The census worker: one chunk of the work list in, plain Python rows out.
 
-This module runs inside the worker processes (loky or dask), so it imports only the
-diagram core and the invariant modules — never sympy, pandas, duckdb, matplotlib or
-pyarrow; rows travel back to the parent as lists of dicts, which the parent checks
-against ``schemas/`` and writes.
+This module runs inside the worker processes (loky or dask).  It imports the diagram
+core (:mod:`pipeline.diagrams`), the invariants (:mod:`pipeline.invariants.all`) and the
+knot keys (:mod:`pipeline.identify.classify`) -- never sympy, pandas, duckdb, matplotlib
+or pyarrow; rows travel back to the parent as lists of dicts, which the parent checks
+against the Arrow schemas (:mod:`pipeline.census.schemas`) and writes.
 
 Isolation: every diagram is computed on its own.  A notation that does not parse
 becomes a ``rejects`` row with the parser's reason; an exception or a budget overrun
-becomes the row's ``status``; the chunk ``timeout`` (seconds) is enforced with a
-``SIGALRM`` interval timer in the worker's main thread (between diagrams otherwise),
-after which the remaining rows carry only the cheap columns and the status
-``skipped: chunk timeout N s``.  A worker stuck where no signal can reach it is
-killed by the parent (see :mod:`pipeline.census.run`).
+becomes the row's ``status``.  The chunk ``timeout`` (seconds) is enforced with a
+``SIGALRM`` interval timer when the chunk runs in the worker's main thread (loky), and
+otherwise only between diagrams (a dask worker thread); when it fires, the row being
+computed and the remaining rows carry only the cheap columns and the status
+``skipped: chunk timeout N s``.  A worker stuck where no signal reaches it is killed by
+the parent (see :mod:`pipeline.census.local`).
+
+``compute_chunk`` takes an optional ``fault`` callable, called with each work item
+before its invariants are computed; it exists so that tests can inject slowness, hangs
+and crashes explicitly.  Production runs pass none.
 """
 
 from __future__ import annotations
 
 import json
-import os
 import signal
 import threading
 import time
-from typing import Any, Optional, Sequence
+from typing import Any, Callable, Optional, Sequence
 
 from ..errors import KnotLedgerError
 
-__all__ = ["compute_chunk", "ChunkTimeout", "diagram_row_skeleton"]
+__all__ = ["compute_chunk", "ChunkTimeout", "diagram_row_skeleton", "timeout_row", "reject_row",
+           "given_up_result"]
 
 INT64_MIN, INT64_MAX = -(2 ** 63), 2 ** 63 - 1
 #: compute_all keys that land in their own columns or are deliberately not stored
@@ -148,15 +154,15 @@ def _knot_key(row: dict, inv: dict, d) -> None:
         row["extras"] = json.dumps(old, separators=(",", ":"), sort_keys=True)
 
 
-def _one(item, opts: dict, out: dict) -> None:
+def _one(item, opts: dict, out: dict, fault: Optional[Callable]) -> None:
     from ..diagrams.notation import parse
     if item.error is not None:
-        out["rejects"].append(_reject(item, item.error))
+        out["rejects"].append(reject_row(item, item.error))
         return
     try:
         d = parse(item.notation)
     except KnotLedgerError as err:
-        out["rejects"].append(_reject(item, str(err)))
+        out["rejects"].append(reject_row(item, str(err)))
         return
     if item.check_knot and d.n_components != 1:
         out["skipped_links"] += 1
@@ -165,7 +171,8 @@ def _one(item, opts: dict, out: dict) -> None:
     out["diagrams"].append(row)
     row["status"] = "error: row not finished"
     try:
-        _test_hooks(item)
+        if fault is not None:
+            fault(item)
         inv = _invariants(d, opts, item.notation)
         out["colorings"].extend(_fill(row, inv))
         _knot_key(row, inv, d)
@@ -176,59 +183,41 @@ def _one(item, opts: dict, out: dict) -> None:
         row["status"] = f"error: {type(err).__name__}: {text}".rstrip(": ")
 
 
-def _reject(item, reason: str) -> dict:
+def reject_row(item, reason: str) -> dict:
+    """The rejects row of an item whose text could not be turned into a diagram."""
     return {"row_id": item.row_id, "family": item.family, "family_index": item.family_index,
             "source": item.source or f"family {item.family_index + 1} ({item.family})",
             "text": item.notation, "reason": reason}
-
-
-def _test_hooks(item) -> None:
-    """Deterministic slowness for the tests (env vars; no effect when unset)."""
-    slow = os.environ.get("KNOTLEDGER_TEST_SLOW_ROW")
-    if slow:
-        rid, secs = slow.split(":")
-        if int(rid) == item.row_id:
-            time.sleep(float(secs))
-    stuck = os.environ.get("KNOTLEDGER_TEST_STUCK_ROW")
-    if stuck:
-        rid, secs = stuck.split(":")
-        if int(rid) == item.row_id:  # stuck where SIGALRM cannot interrupt (like a long C call)
-            main = threading.current_thread() is threading.main_thread()
-            old = signal.signal(signal.SIGALRM, signal.SIG_IGN) if main else None
-            end = time.monotonic() + float(secs)
-            while time.monotonic() < end:
-                time.sleep(0.05)
-            if main:
-                signal.signal(signal.SIGALRM, old)
 
 
 def _on_alarm(signum, frame):
     raise ChunkTimeout()
 
 
-def compute_chunk(chunk: int, items: Sequence, opts: dict) -> dict:
+def compute_chunk(chunk: int, items: Sequence, opts: dict, *,
+                  fault: Optional[Callable] = None) -> dict:
     """Compute one chunk; return ``{"chunk", "diagrams", "colorings", "rejects", "stats"}``.
 
-    ``opts``: ``max_modulus``, ``jones_budget``, ``min_colors_budget``, ``timeout``.
+    ``opts``: ``max_modulus``, ``jones_budget``, ``min_colors_budget``, ``timeout``
+    (seconds for the whole chunk; ``None`` or 0 for none).  ``fault``: see the module
+    docstring (tests only).
     """
     t0 = time.monotonic()
-    pause = os.environ.get("KNOTLEDGER_TEST_CHUNK_SLEEP")
-    if pause:
-        time.sleep(float(pause))
     out: dict = {"chunk": chunk, "diagrams": [], "colorings": [], "rejects": [], "skipped_links": 0}
     timeout = opts.get("timeout")
     use_alarm = bool(timeout) and threading.current_thread() is threading.main_thread()
     deadline = t0 + timeout if timeout else None
     timed_out = False
-    old = None
-    if use_alarm:
-        old = signal.signal(signal.SIGALRM, _on_alarm)
-        signal.setitimer(signal.ITIMER_REAL, max(timeout - (time.monotonic() - t0), 1e-3))
+    old = signal.signal(signal.SIGALRM, _on_alarm) if use_alarm else None
+    k = 0  # bound before the timer can fire: a timeout before the first item gives up all
     try:
+        if use_alarm:
+            signal.setitimer(signal.ITIMER_REAL, max(timeout - (time.monotonic() - t0), 1e-3))
         for k, item in enumerate(items):
             if deadline is not None and time.monotonic() > deadline:
                 raise ChunkTimeout()
-            _one(item, opts, out)
+            _one(item, opts, out, fault)
+        k = len(items)  # a timer firing after the last item gives up nothing
     except ChunkTimeout:
         timed_out = True
         _give_up(items, k, out, timeout)
@@ -243,13 +232,15 @@ def compute_chunk(chunk: int, items: Sequence, opts: dict) -> dict:
 
 def _give_up(items: Sequence, k: int, out: dict, timeout) -> None:
     """Rows k.. of a timed-out chunk: cheap columns only, status says why."""
+    if k >= len(items):
+        return
     done = {r["row_id"] for r in out["diagrams"]}
     if items[k].row_id in done:  # the diagram being computed when time ran out
         out["colorings"] = [c for c in out["colorings"] if c["row_id"] != items[k].row_id]
         out["diagrams"] = [r for r in out["diagrams"] if r["row_id"] != items[k].row_id]
     for item in items[k:]:
         if item.error is not None:
-            out["rejects"].append(_reject(item, item.error))
+            out["rejects"].append(reject_row(item, item.error))
         else:
             out["diagrams"].append(timeout_row(item, timeout))
 
@@ -259,3 +250,22 @@ def timeout_row(item, timeout) -> dict:
     row = diagram_row_skeleton(item)
     row["status"] = f"skipped: chunk timeout {timeout:g} s"
     return row
+
+
+def given_up_result(chunk: int, items: Sequence, timeout: Optional[float], status: str = "") -> dict:
+    """The result of a chunk whose worker never came back: every row is given up.
+
+    Computed by the parent (no diagram is parsed).  ``status`` replaces the timeout
+    status when non-empty (``error: worker process died ...``).
+    """
+    out: dict = {"chunk": chunk, "diagrams": [], "colorings": [], "rejects": []}
+    for item in items:
+        if item.error is not None:
+            out["rejects"].append(reject_row(item, item.error))
+        else:
+            row = timeout_row(item, timeout or 0)
+            if status:
+                row["status"] = status
+            out["diagrams"].append(row)
+    out["stats"] = {"items": len(items), "seconds": None, "timed_out": True, "skipped_links": 0}
+    return out

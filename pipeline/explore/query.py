@@ -94,7 +94,8 @@ def connect(directory: str | Path):
     for table in TABLES:
         files = table_files(path, table)
         if files:
-            source = f"read_parquet({_sql_string(str(path / table) + '/*.parquet')}, union_by_name = true)"
+            listed = ", ".join(_sql_string(str(f)) for f in files)  # the committed parts only
+            source = f"read_parquet([{listed}], union_by_name = true)"
             con.execute(f"CREATE VIEW {table} AS SELECT {_VIEW_COLUMNS.get(table, '*')} FROM {source}")
     con.execute("SET lock_configuration = true")
     return con
