@@ -40,7 +40,10 @@ def homfly_of_notation(text: str, *, budget: Optional[int] = None) -> Optional[H
     if kind == "braid":
         word, strands = vals, None
     else:
-        word, strands = torus.word(vals[0], vals[1]), abs(vals[0])
+        p, q = vals[0], vals[1]
+        if abs(q) < abs(p):  # T(p,q) = T(q,p) (Rolfsen ch. 3): use fewer strands
+            p, q = q, p
+        word, strands = torus.word(p, q), abs(p)
     n = strands if strands is not None else max(abs(g) for g in word) + 1
     if n > MAX_STRANDS:
         return None
