@@ -25,14 +25,19 @@ and, when ω is a root of unity (the factor is the minimal polynomial of 2cos(2�
 python-flint ``cos_minpoly``), its angle θ/2π as a fraction.  The values on the arcs
 between jumps are computed at rational sample points s.  No floating point anywhere.
 
-A Seifert matrix whose pencil sS − iA is singular after removing the common kernel of V
-and Vᵀ (which every H(ω) contains) is refused with a one-line error.
+Links with Δ = 0.  The common kernel of V and Vᵀ (inside every H(ω)) is removed first.  If
+the pencil sS − iA is still singular, of generic rank r, σ can only change where the rank
+drops below r, and there every principal r × r minor vanishes (for a Hermitian matrix the
+rank is the largest order of a nonsingular principal minor); so D is replaced by the gcd of
+the nonzero principal r × r minors (up to 24 tried).  Its roots are a superset of the
+points where σ changes; the values between them are exact as always.
 """
 
 from __future__ import annotations
 
 from dataclasses import dataclass
 from fractions import Fraction
+from itertools import combinations
 from math import gcd, isqrt
 from typing import Optional, Sequence
 
@@ -41,6 +46,8 @@ from flint import fmpq, fmpq_poly, fmpz_mat, fmpz_poly
 
 from ..errors import KnotLedgerError
 from .signature import symmetric_inertia
+
+_MINORS = 24
 
 __all__ = ["JumpPoint", "SignatureFunction", "tristram_levine", "tristram_levine_at"]
 
@@ -175,6 +182,45 @@ def _det_poly(S, A) -> fmpz_poly:
     return _interp(pts, vals).sqrt()
 
 
+def _breakpoint_poly(S, A) -> fmpz_poly:
+    """D(s) = det(sS − iA), or for a singular pencil of generic rank r the gcd of its
+    nonzero principal r × r minors (at most ``_MINORS`` of them are tried)."""
+    m = len(S)
+    D = _det_poly(S, A)
+    if not D.is_zero():
+        return D
+    r = max(_hermitian_rank(S, A, Fraction(7, 3)), _hermitian_rank(S, A, Fraction(5, 11)))
+    if r == 0:
+        return fmpz_poly([1])
+    g = fmpz_poly([])
+    tried = 0
+    for idx in combinations(range(m), r):
+        sub_s = [[S[a][b] for b in idx] for a in idx]
+        sub_a = [[A[a][b] for b in idx] for a in idx]
+        d = _det_poly(sub_s, sub_a)
+        if d.is_zero():
+            continue
+        g = d if g.is_zero() else g.gcd(d)
+        tried += 1
+        if tried >= _MINORS or g.degree() == 0:
+            break
+    if g.is_zero():
+        raise KnotLedgerError("tristram_levine: no nonsingular principal minor of the generic rank")
+    return g
+
+
+def _hermitian_rank(S, A, s: Fraction) -> int:
+    p, q = s.numerator, s.denominator
+    m = len(S)
+    R = [[0] * (2 * m) for _ in range(2 * m)]
+    for r in range(m):
+        for c in range(m):
+            R[r][c] = R[m + r][m + c] = p * S[r][c]
+            R[r][m + c] = q * A[r][c]
+            R[m + r][c] = -q * A[r][c]
+    return int(fmpz_mat(R).rank()) // 2 if m else 0
+
+
 def _x_polynomial(D: fmpz_poly) -> fmpz_poly:
     """G(x) = (2 + x)^deg F · F((2 − x)/(2 + x)) where D(s) = s^r F(s²)."""
     cs = [int(c) for c in D.coeffs()]
@@ -230,16 +276,14 @@ def tristram_levine(V: Sequence[Sequence[int]]) -> SignatureFunction:
     Raises
     ------
     KnotLedgerError
-        If the pencil is singular after removing the common kernel of V and Vᵀ.
+        Only on an internal inconsistency (a parity or rank property that cannot fail).
     """
     W = _restrict(V)
     S, A = _forms(W)
     at_minus_one = _sig_sym(S)
     if not W:
         return SignatureFunction((), (0,), at_minus_one)
-    D = _det_poly(S, A)
-    if D.is_zero():
-        raise KnotLedgerError("tristram_levine: singular Seifert pencil (det(sS − iA) = 0 for all s)")
+    D = _breakpoint_poly(S, A)
     G = _x_polynomial(D)
     x = sympy.Symbol("x")
     roots = []  # (lo, hi, factor, multiplicity)
