@@ -28,15 +28,14 @@ V − Vᵀ is then the intersection form of the surface (unimodular for a knot).
 
 from __future__ import annotations
 
-from fractions import Fraction
 from typing import Optional, Sequence
 
-from flint import fmpq_poly, fmpz_mat
+from flint import fmpq, fmpq_poly, fmpz_mat, fmpz_poly
 
 from ..errors import KnotLedgerError, NotationError
 from .poly import Laurent
 
-__all__ = ["braid_seifert_matrix", "seifert_alexander", "SeifertSurfaceError"]
+__all__ = ["braid_seifert_matrix", "seifert_alexander", "SeifertSurfaceError", "interpolate_integer_poly"]
 
 
 class SeifertSurfaceError(KnotLedgerError):
@@ -102,19 +101,22 @@ def seifert_alexander(V: Sequence[Sequence[int]]) -> Laurent:
     m = len(V)
     if m == 0:
         return Laurent({0: 1})
-    pts, vals = [], []
-    for t in range(m + 1):
-        M = fmpz_mat([[V[r][c] - t * V[c][r] for c in range(m)] for r in range(m)])
-        pts.append(t)
-        vals.append(int(M.det()))
+    pts = list(range(m + 1))
+    vals = [int(fmpz_mat([[V[r][c] - t * V[c][r] for c in range(m)] for r in range(m)]).det()) for t in pts]
+    coeffs = interpolate_integer_poly(pts, vals).coeffs()
+    return Laurent({2 * k - m: int(c) for k, c in enumerate(coeffs) if c})
+
+
+def interpolate_integer_poly(points: Sequence[int], values: Sequence[int]) -> fmpz_poly:
+    """The polynomial of degree < len(points) through integer data known to have an
+    integer-coefficient interpolant (Lagrange over Q, checked integral)."""
     poly = fmpq_poly([0])
-    for k, (tk, yk) in enumerate(zip(pts, vals)):  # Lagrange interpolation over Q
+    for k, (tk, yk) in enumerate(zip(points, values)):
         term = fmpq_poly([yk])
-        for j, tj in enumerate(pts):
+        for j, tj in enumerate(points):
             if j != k:
                 term = term * fmpq_poly([-tj, 1]) / (tk - tj)
         poly += term
-    coeffs = [Fraction(int(c.p), int(c.q)) for c in poly.coeffs()]
-    if any(c.denominator != 1 for c in coeffs):
+    if any(fmpq(c).q != 1 for c in poly.coeffs()):
         raise ArithmeticError("seifert: interpolated determinant is not integral")
-    return Laurent({2 * k - m: int(c) for k, c in enumerate(coeffs) if c})
+    return fmpz_poly([int(fmpq(c).p) for c in poly.coeffs()])

@@ -42,9 +42,10 @@ from math import gcd, isqrt
 from typing import Optional, Sequence
 
 import sympy
-from flint import fmpq, fmpq_poly, fmpz_mat, fmpz_poly
+from flint import fmpz_mat, fmpz_poly
 
 from ..errors import KnotLedgerError
+from .seifert import interpolate_integer_poly
 from .signature import symmetric_inertia
 
 _MINORS = 24
@@ -115,9 +116,8 @@ def _sig_sym(M: list[list[int]]) -> int:
     return p - n
 
 
-def _hermitian_signature(S, A, s: Fraction) -> int:
-    """Signature of q(sS − iA) for s = p/q ≥ 0, via the real 2m × 2m form."""
-    p, q = s.numerator, s.denominator
+def _real_form(S, A, p: int, q: int) -> list[list[int]]:
+    """[[pS, qA], [−qA, pS]]: the real symmetric form of the Hermitian q(sS − iA), s = p/q."""
     m = len(S)
     R = [[0] * (2 * m) for _ in range(2 * m)]
     for r in range(m):
@@ -125,7 +125,12 @@ def _hermitian_signature(S, A, s: Fraction) -> int:
             R[r][c] = R[m + r][m + c] = p * S[r][c]
             R[r][m + c] = q * A[r][c]
             R[m + r][c] = -q * A[r][c]
-    return _sig_sym(R) // 2
+    return R
+
+
+def _hermitian_signature(S, A, s: Fraction) -> int:
+    """Signature of q(sS − iA) for s = p/q ≥ 0, via the real 2m × 2m form."""
+    return _sig_sym(_real_form(S, A, s.numerator, s.denominator)) // 2
 
 
 def _restrict(V: Sequence[Sequence[int]]) -> list[list[int]]:
@@ -155,31 +160,14 @@ def tristram_levine_at(V: Sequence[Sequence[int]], s: Fraction | int | None) -> 
     return _hermitian_signature(S, A, abs(Fraction(s)))
 
 
-def _interp(points: list[int], values: list[int]) -> fmpz_poly:
-    poly = fmpq_poly([0])
-    for k, (tk, yk) in enumerate(zip(points, values)):
-        term = fmpq_poly([yk])
-        for j, tj in enumerate(points):
-            if j != k:
-                term = term * fmpq_poly([-tj, 1]) / (tk - tj)
-        poly += term
-    return fmpz_poly([int(fmpq(c).p) for c in poly.coeffs()])
-
-
 def _det_poly(S, A) -> fmpz_poly:
     """D(s) = det(sS − iA) up to sign, from D² = det [[sS, A], [−A, sS]]."""
     m = len(S)
     pts = list(range(2 * m + 1))
     vals = []
     for s in pts:
-        R = [[0] * (2 * m) for _ in range(2 * m)]
-        for r in range(m):
-            for c in range(m):
-                R[r][c] = R[m + r][m + c] = s * S[r][c]
-                R[r][m + c] = A[r][c]
-                R[m + r][c] = -A[r][c]
-        vals.append(int(fmpz_mat(R).det()))
-    return _interp(pts, vals).sqrt()
+        vals.append(int(fmpz_mat(_real_form(S, A, s, 1)).det()))
+    return interpolate_integer_poly(pts, vals).sqrt()
 
 
 def _breakpoint_poly(S, A) -> fmpz_poly:
@@ -210,15 +198,7 @@ def _breakpoint_poly(S, A) -> fmpz_poly:
 
 
 def _hermitian_rank(S, A, s: Fraction) -> int:
-    p, q = s.numerator, s.denominator
-    m = len(S)
-    R = [[0] * (2 * m) for _ in range(2 * m)]
-    for r in range(m):
-        for c in range(m):
-            R[r][c] = R[m + r][m + c] = p * S[r][c]
-            R[r][m + c] = q * A[r][c]
-            R[m + r][c] = -q * A[r][c]
-    return int(fmpz_mat(R).rank()) // 2 if m else 0
+    return int(fmpz_mat(_real_form(S, A, s.numerator, s.denominator)).rank()) // 2 if S else 0
 
 
 def _x_polynomial(D: fmpz_poly) -> fmpz_poly:
