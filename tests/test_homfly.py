@@ -118,6 +118,8 @@ def test_budget():
 
 
 def test_notation_routing():
+    assert homfly_of_notation("braid:1 1 1") == homfly_of_notation("braid:1,1,1") == TREFOIL
+    assert homfly_of_notation("torus:9,2") == homfly_of_notation("torus:2,9")
     assert homfly_of_notation("pretzel:3,-2,3") is None
     assert homfly_of_notation("braid:1,2,3,4,5,6,7") is None  # 8 strands: general route
     assert homfly_polynomial(parse("pretzel:3,-2,3"), notation="pretzel:3,-2,3") == \

@@ -27,7 +27,8 @@ from hypothesis import strategies as st
 
 from pipeline.diagrams.families import braid, torus
 from pipeline.invariants.alexander import alexander_polynomial
-from pipeline.invariants.seifert import SeifertSurfaceError, braid_seifert_matrix, seifert_alexander
+from pipeline.invariants.seifert import (SeifertSurfaceError, braid_seifert_matrix, seifert_alexander,
+                                         seifert_matrix_of_notation)
 from pipeline.invariants.signature import signature
 from pipeline.invariants.tristram_levine import tristram_levine, tristram_levine_at
 
@@ -113,6 +114,9 @@ def test_trefoil_jump_at_a_sixth_of_a_turn():
 def test_disconnected_surface_is_refused():
     with pytest.raises(SeifertSurfaceError):
         braid_seifert_matrix([1, 1, 3, 3])
+    assert seifert_matrix_of_notation("braid:1,1,3,3") is None
+    assert seifert_matrix_of_notation("pretzel:3,3,3") is None
+    assert seifert_matrix_of_notation("torus:9,2") == braid_seifert_matrix(torus.word(2, 9))
 
 
 words = st.integers(2, 4).flatmap(lambda n: st.lists(

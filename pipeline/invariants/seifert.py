@@ -28,14 +28,18 @@ V − Vᵀ is then the intersection form of the surface (unimodular for a knot).
 
 from __future__ import annotations
 
+import re
 from typing import Optional, Sequence
 
 from flint import fmpq, fmpq_poly, fmpz_mat, fmpz_poly
 
+from ..diagrams.families import torus
+from ..diagrams.notation import parse, split_notation
 from ..errors import KnotLedgerError, NotationError
 from .poly import Laurent
 
-__all__ = ["braid_seifert_matrix", "seifert_alexander", "SeifertSurfaceError", "interpolate_integer_poly"]
+__all__ = ["braid_seifert_matrix", "seifert_alexander", "SeifertSurfaceError", "interpolate_integer_poly",
+           "braid_of_notation", "seifert_matrix_of_notation"]
 
 
 class SeifertSurfaceError(KnotLedgerError):
@@ -89,6 +93,35 @@ def braid_seifert_matrix(word: Sequence[int], *, strands: Optional[int] = None) 
                 elif c < a < d < b:
                     V[x][y] = 1
     return V
+
+
+def braid_of_notation(text: str) -> Optional[tuple[list[int], int]]:
+    """(word, strands) of a ``braid:`` or ``torus:`` row (torus on min(|p|, |q|) strands,
+    T(p,q) = T(q,p), Rolfsen ch. 3); None for any other kind.  Validates the notation."""
+    kind, args = split_notation(text)
+    if kind not in ("braid", "torus"):
+        return None
+    parse(text)  # the notation's own one-line errors
+    vals = [int(x) for x in re.split(r"[,\s]+", args.strip()) if x]
+    if kind == "braid":
+        return vals, max(abs(g) for g in vals) + 1
+    p, q = vals[0], vals[1]
+    if abs(q) < abs(p):
+        p, q = q, p
+    return torus.word(p, q), abs(p)
+
+
+def seifert_matrix_of_notation(text: str) -> Optional[list[list[int]]]:
+    """Seifert matrix of a ``braid:``/``torus:`` row whose closed-braid surface is connected,
+    else None (other kinds, or a generator missing: then the link is split or the braid
+    can be shortened)."""
+    wb = braid_of_notation(text)
+    if wb is None:
+        return None
+    word, strands = wb
+    if {abs(g) for g in word} != set(range(1, strands)):
+        return None
+    return braid_seifert_matrix(word, strands=strands)
 
 
 def seifert_alexander(V: Sequence[Sequence[int]]) -> Laurent:

@@ -16,8 +16,7 @@ from __future__ import annotations
 from typing import Optional
 
 from ...diagrams.diagram import Diagram
-from ...diagrams.families import torus
-from ...diagrams.notation import parse, split_notation
+from ..seifert import braid_of_notation
 from .hecke import MAX_STRANDS, basis_trace, homfly_braid
 from .hpoly import DELTA, HPoly
 from .skein import homfly_general
@@ -32,22 +31,13 @@ def homfly_of_notation(text: str, *, budget: Optional[int] = None) -> Optional[H
     Also None when the braid has more than ``MAX_STRANDS`` strands.  ``budget`` bounds
     n!·length (see :func:`homfly_braid`).
     """
-    kind, args = split_notation(text)
-    if kind not in ("braid", "torus"):
+    wb = braid_of_notation(text)
+    if wb is None:
         return None
-    parse(text)  # validates, with the notation's own one-line errors
-    vals = [int(x) for x in args.replace(" ", "").split(",") if x]
-    if kind == "braid":
-        word, strands = vals, None
-    else:
-        p, q = vals[0], vals[1]
-        if abs(q) < abs(p):  # T(p,q) = T(q,p) (Rolfsen ch. 3): use fewer strands
-            p, q = q, p
-        word, strands = torus.word(p, q), abs(p)
-    n = strands if strands is not None else max(abs(g) for g in word) + 1
+    word, n = wb
     if n > MAX_STRANDS:
         return None
-    return homfly_braid(word, strands=strands, budget=budget)
+    return homfly_braid(word, strands=n, budget=budget)
 
 
 def homfly_polynomial(diagram: Diagram, *, notation: Optional[str] = None,
