@@ -39,7 +39,7 @@ from ..errors import KnotLedgerError, NotationError
 from .poly import Laurent
 
 __all__ = ["braid_seifert_matrix", "seifert_alexander", "SeifertSurfaceError", "interpolate_integer_poly",
-           "braid_of_notation", "seifert_matrix_of_notation"]
+           "braid_of_notation", "seifert_matrix_of_notation", "seifert_det_poly"]
 
 
 class SeifertSurfaceError(KnotLedgerError):
@@ -132,12 +132,18 @@ def seifert_alexander(V: Sequence[Sequence[int]]) -> Laurent:
     from python-flint integer determinants; multiplying by t^(−m/2) normalises.
     """
     m = len(V)
+    coeffs = seifert_det_poly(V).coeffs()
+    return Laurent({2 * k - m: int(c) for k, c in enumerate(coeffs) if c})
+
+
+def seifert_det_poly(V: Sequence[Sequence[int]]) -> fmpz_poly:
+    """det(V − tVᵀ) as an integer polynomial in t, by exact interpolation at t = 0, …, m."""
+    m = len(V)
     if m == 0:
-        return Laurent({0: 1})
+        return fmpz_poly([1])
     pts = list(range(m + 1))
     vals = [int(fmpz_mat([[V[r][c] - t * V[c][r] for c in range(m)] for r in range(m)]).det()) for t in pts]
-    coeffs = interpolate_integer_poly(pts, vals).coeffs()
-    return Laurent({2 * k - m: int(c) for k, c in enumerate(coeffs) if c})
+    return interpolate_integer_poly(pts, vals)
 
 
 def interpolate_integer_poly(points: Sequence[int], values: Sequence[int]) -> fmpz_poly:

@@ -15,8 +15,9 @@ elimination (:func:`pipeline.invariants.signature.symmetric_inertia`, Sylvester)
 
 Jump points.  σ is constant on arcs where det H ≠ 0; det H(ω) vanishes exactly where
 det(ωV − Vᵀ) = 0, at roots of the Alexander polynomial on the circle.  D(s) = det(sS − iA)
-is a real polynomial with D(−s) = (−1)^m D(s); D(s)² = det [[sS, A], [−A, sS]] is found
-by exact interpolation of integer determinants and D by an exact square root.  Writing
+is a real polynomial with D(−s) = (−1)^m D(s); it equals (s − i)^m det(V − tVᵀ) at
+t = −(s + i)/(s − i), so it is expanded exactly over Z[i] from det(V − tVᵀ) (exact
+interpolation of integer determinants).  Writing
 D(s) = s^r F(s²) and x = ω + ω̄ = 2cos θ, so that s² = (2 − x)/(2 + x), the jump points are
 the roots in (−2, 2) of G(x) = (2 + x)^(deg F) F((2 − x)/(2 + x)), up to a constant the
 Alexander polynomial Δ(t) written in x = t + 1/t.  Each is stored as an irreducible
@@ -45,7 +46,7 @@ import sympy
 from flint import fmpz_mat, fmpz_poly
 
 from ..errors import KnotLedgerError
-from .seifert import interpolate_integer_poly
+from .seifert import seifert_det_poly
 from .signature import symmetric_inertia
 
 _MINORS = 24
@@ -160,21 +161,40 @@ def tristram_levine_at(V: Sequence[Sequence[int]], s: Fraction | int | None) -> 
     return _hermitian_signature(S, A, abs(Fraction(s)))
 
 
-def _det_poly(S, A) -> fmpz_poly:
-    """D(s) = det(sS − iA) up to sign, from D² = det [[sS, A], [−A, sS]]."""
-    m = len(S)
-    pts = list(range(2 * m + 1))
-    vals = []
-    for s in pts:
-        vals.append(int(fmpz_mat(_real_form(S, A, s, 1)).det()))
-    return interpolate_integer_poly(pts, vals).sqrt()
+def _det_poly(W: Sequence[Sequence[int]]) -> fmpz_poly:
+    """D(s) = det(sS − iA) = det((s − i)W + (s + i)Wᵀ) = (s − i)^m·det(W − tWᵀ) at
+    t = −(s + i)/(s − i), i.e. Σ_k c_k (−1)^k (s + i)^k (s − i)^(m−k) for
+    det(W − tWᵀ) = Σ c_k t^k; expanded over Z[i] as (real, imaginary) integer polynomials."""
+    m = len(W)
+    cs = [int(c) for c in seifert_det_poly(W).coeffs()] + [0] * (m + 1)
+    s_ = fmpz_poly([0, 1])
+
+    def times(z, sign):  # (re, im)·(s + sign·i)
+        re, im = z
+        return s_ * re - sign * im, s_ * im + sign * re
+
+    plus = [(fmpz_poly([1]), fmpz_poly([]))]
+    minus = [(fmpz_poly([1]), fmpz_poly([]))]
+    for _ in range(m):
+        plus.append(times(plus[-1], 1))
+        minus.append(times(minus[-1], -1))
+    re_total, im_total = fmpz_poly([]), fmpz_poly([])
+    for k in range(m + 1):
+        if cs[k]:
+            (a, b), (c, d) = plus[k], minus[m - k]
+            f = cs[k] * (-1) ** k
+            re_total += f * (a * c - b * d)
+            im_total += f * (a * d + b * c)
+    if not im_total.is_zero():
+        raise KnotLedgerError("tristram_levine: det(sS − iA) is not real")
+    return re_total
 
 
-def _breakpoint_poly(S, A) -> fmpz_poly:
+def _breakpoint_poly(W, S, A) -> fmpz_poly:
     """D(s) = det(sS − iA), or for a singular pencil of generic rank r the gcd of its
     nonzero principal r × r minors (at most ``_MINORS`` of them are tried)."""
     m = len(S)
-    D = _det_poly(S, A)
+    D = _det_poly(W)
     if not D.is_zero():
         return D
     r = max(_hermitian_rank(S, A, Fraction(7, 3)), _hermitian_rank(S, A, Fraction(5, 11)))
@@ -183,9 +203,7 @@ def _breakpoint_poly(S, A) -> fmpz_poly:
     g = fmpz_poly([])
     tried = 0
     for idx in combinations(range(m), r):
-        sub_s = [[S[a][b] for b in idx] for a in idx]
-        sub_a = [[A[a][b] for b in idx] for a in idx]
-        d = _det_poly(sub_s, sub_a)
+        d = _det_poly([[W[a][b] for b in idx] for a in idx])
         if d.is_zero():
             continue
         g = d if g.is_zero() else g.gcd(d)
@@ -263,7 +281,7 @@ def tristram_levine(V: Sequence[Sequence[int]]) -> SignatureFunction:
     at_minus_one = _sig_sym(S)
     if not W:
         return SignatureFunction((), (0,), at_minus_one)
-    D = _breakpoint_poly(S, A)
+    D = _breakpoint_poly(W, S, A)
     G = _x_polynomial(D)
     x = sympy.Symbol("x")
     roots = []  # (lo, hi, factor, multiplicity)
