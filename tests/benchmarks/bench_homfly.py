@@ -90,9 +90,9 @@ def main(argv: list[str] | None = None) -> int:
     lines += [f"- {f}: k = {k:.2f}" for f, k in fits.items()]
     lines += [
         "",
-        "The work per letter is n! coefficient updates on polynomials whose size grows like "
-        "length² (v- and z-degree both grow linearly), so k ≈ 2–3 is expected; polynomial in the "
-        "length for a fixed number of strands.",
+        "Each letter updates n! packed coefficients of size O(length²) (v- and z-degree both grow "
+        "linearly), so k ≈ 3 is expected: polynomial in the length for a fixed number of strands "
+        "(the skein route below is exponential). Timings on a shared machine are noisy.",
         "",
         "## General skein route vs braid route on small cases (same run)",
         "",
