@@ -113,7 +113,8 @@ def test_budget():
         homfly_general(d, budget=5)
     assert str(err.value) == "skipped: homfly budget 5"
     with pytest.raises(BudgetExceeded):
-        homfly_polynomial(d, notation="torus:3,5", budget=10)
+        homfly_polynomial(d, notation="torus:3,5", braid_budget=10)
+    assert homfly_polynomial(d, notation="torus:3,5", budget=1) == homfly_of_notation("torus:3,5")
     assert homfly_general(d, budget=10_000) == homfly_of_notation("torus:3,5")
 
 

@@ -41,7 +41,7 @@ def homfly_of_notation(text: str, *, budget: Optional[int] = None) -> Optional[H
 
 
 def homfly_polynomial(diagram: Diagram, *, notation: Optional[str] = None,
-                      budget: Optional[int] = None) -> HPoly:
+                      budget: Optional[int] = None, braid_budget: Optional[int] = None) -> HPoly:
     """HOMFLY-PT polynomial P(v, z) of an oriented link diagram.
 
     Parameters
@@ -51,8 +51,11 @@ def homfly_polynomial(diagram: Diagram, *, notation: Optional[str] = None,
     notation : str, optional
         The row's notation; ``braid:``/``torus:`` rows take the Hecke route.
     budget : int, optional
-        ``homfly_budget``: diagrams expanded by the skein route (or n!·length for the
-        braid route); exceeded -> ``BudgetExceeded('homfly', budget)``.
+        ``homfly_budget``: diagrams expanded by the skein route; exceeded ->
+        ``BudgetExceeded('homfly', budget)``.
+    braid_budget : int, optional
+        Bound on n!·length for the braid route (exceeded -> ``BudgetExceeded('homfly',
+        braid_budget)``); None: no bound beyond ``MAX_STRANDS``.
 
     Examples
     --------
@@ -66,7 +69,7 @@ def homfly_polynomial(diagram: Diagram, *, notation: Optional[str] = None,
     P. Traczyk, "Invariants of links of Conway type", Kobe J. Math. 4 (1987).
     """
     if notation is not None:
-        fast = homfly_of_notation(notation, budget=budget)
+        fast = homfly_of_notation(notation, budget=braid_budget)
         if fast is not None:
             return fast
     return homfly_general(diagram, budget=budget)
