@@ -1,0 +1,75 @@
+"""HOMFLY-PT polynomial, normalised by v⁻¹P(L₊) − vP(L₋) = zP(L₀), P(unknot) = 1.
+
+So V(t) = P(v = t, z = t^½ − t^−½) and ∇(z) = P(1, z); the positive trefoil has
+P = 2v² − v⁴ + v²z².  Routes:
+
+``skein``   general route, any diagram: memoised skein tree to descending diagrams
+``hecke``   braid closures (``braid:``, ``torus:``): Hecke-algebra transfer matrix with
+            the Ocneanu trace, polynomial in the length for a fixed number of strands
+``hpoly``   the exact two-variable Laurent polynomial type and its specialisations
+
+:func:`homfly_polynomial` picks the route from the notation when one is given.
+"""
+
+from __future__ import annotations
+
+from typing import Optional
+
+from ...diagrams.diagram import Diagram
+from ..seifert import braid_of_notation
+from .hecke import MAX_STRANDS, basis_trace, homfly_braid
+from .hpoly import DELTA, HPoly
+from .skein import homfly_general
+
+__all__ = ["HPoly", "DELTA", "homfly_polynomial", "homfly_general", "homfly_braid",
+           "homfly_of_notation", "basis_trace", "MAX_STRANDS"]
+
+
+def homfly_of_notation(text: str, *, budget: Optional[int] = None) -> Optional[HPoly]:
+    """P by the braid route for ``braid:`` and ``torus:`` notation; None for other kinds.
+
+    Also None when the braid has more than ``MAX_STRANDS`` strands.  ``budget`` bounds
+    n!·length (see :func:`homfly_braid`).
+    """
+    wb = braid_of_notation(text)
+    if wb is None:
+        return None
+    word, n = wb
+    if n > MAX_STRANDS:
+        return None
+    return homfly_braid(word, strands=n, budget=budget)
+
+
+def homfly_polynomial(diagram: Diagram, *, notation: Optional[str] = None,
+                      budget: Optional[int] = None, braid_budget: Optional[int] = None) -> HPoly:
+    """HOMFLY-PT polynomial P(v, z) of an oriented link diagram.
+
+    Parameters
+    ----------
+    diagram : Diagram
+        The diagram (used by the general route).
+    notation : str, optional
+        The row's notation; ``braid:``/``torus:`` rows take the Hecke route.
+    budget : int, optional
+        ``homfly_budget``: diagrams expanded by the skein route; exceeded ->
+        ``BudgetExceeded('homfly', budget)``.
+    braid_budget : int, optional
+        Bound on n!·length for the braid route (exceeded -> ``BudgetExceeded('homfly',
+        braid_budget)``); None: no bound beyond ``MAX_STRANDS``.
+
+    Examples
+    --------
+    >>> homfly_polynomial(parse("torus:2,3")).to_json()
+    [[2, 0, 2], [2, 2, 1], [4, 0, -1]]
+
+    References
+    ----------
+    P. Freyd, D. Yetter, J. Hoste, W. B. R. Lickorish, K. Millett, A. Ocneanu, "A new
+    polynomial invariant of knots and links", Bull. AMS 12 (1985); J. H. Przytycki,
+    P. Traczyk, "Invariants of links of Conway type", Kobe J. Math. 4 (1987).
+    """
+    if notation is not None:
+        fast = homfly_of_notation(notation, budget=braid_budget)
+        if fast is not None:
+            return fast
+    return homfly_general(diagram, budget=budget)
