@@ -49,6 +49,22 @@ class Work:
         self.free_loops = diagram.free_loops
         self.next_label = max(self.where, default=0) + 1
 
+    @classmethod
+    def from_parts(cls, crossings: dict[int, list[int]], signs: dict[int, int],
+                   free_loops: int = 0) -> "Work":
+        """A working copy from PD 4-lists (slot 0 incoming under) and their signs; each
+        label must sit on exactly two slots (checked again by :meth:`to_diagram`)."""
+        w = cls.__new__(cls)
+        w.x = {i: list(t) for i, t in crossings.items()}
+        w.sign = dict(signs)
+        w.where = {}
+        for i, t in w.x.items():
+            for s, v in enumerate(t):
+                w.where.setdefault(v, []).append((i, s))
+        w.free_loops = free_loops
+        w.next_label = max(w.where, default=0) + 1
+        return w
+
     # ------------------------------------------------------------------ basics
     def __len__(self) -> int:
         return len(self.x)
