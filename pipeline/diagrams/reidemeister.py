@@ -47,7 +47,6 @@ class Work:
             for s, v in enumerate(t):
                 self.where.setdefault(v, []).append((i, s))
         self.free_loops = diagram.free_loops
-        self.next_label = max(self.where, default=0) + 1
 
     @classmethod
     def from_parts(cls, crossings: dict[int, list[int]], signs: dict[int, int],
@@ -62,7 +61,6 @@ class Work:
             for s, v in enumerate(t):
                 w.where.setdefault(v, []).append((i, s))
         w.free_loops = free_loops
-        w.next_label = max(w.where, default=0) + 1
         return w
 
     # ------------------------------------------------------------------ basics
@@ -192,32 +190,13 @@ class Work:
         return out
 
     # ------------------------------------------------------------------ nugatory
-    def faces(self) -> list[list[tuple[int, int]]]:
-        seen: set[tuple[int, int]] = set()
-        out = []
-        for i in self.x:
-            for s in range(4):
-                if (i, s) in seen:
-                    continue
-                cyc, h = [], (i, s)
-                while h not in seen:
-                    seen.add(h)
-                    cyc.append(h)
-                    j, t = self.twin(*h)
-                    h = (j, (t + 1) % 4)
-                out.append(cyc)
-        return out
-
     def nugatory(self) -> list[int]:
-        """Crossings met twice by one face (sorted)."""
-        out: set[int] = set()
-        for f in self.faces():
-            seen: set[int] = set()
-            for (j, _) in f:
-                if j in seen:
-                    out.add(j)
-                seen.add(j)
-        return sorted(out)
+        """Crossing ids met twice by one face (sorted), read from the validated diagram."""
+        if not self.x:
+            return []
+        from .simplify import nugatory_crossings
+        ids = sorted(self.x)
+        return [ids[k] for k in nugatory_crossings(self.to_diagram())]
 
     def _side(self, i: int, s: int) -> set[int]:
         """Crossings reachable from the edge at (i, s) without passing crossing i."""
