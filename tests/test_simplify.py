@@ -161,6 +161,11 @@ def test_budget_best_so_far_or_raise():
         simplify(d, budget=2, strict=True)
     with pytest.raises(DiagramError, match="budget"):
         simplify(d, budget=-1)
+    with pytest.raises(DiagramError, match="patience"):
+        simplify(d, patience="many")
+    with pytest.raises(DiagramError, match="expected a Diagram"):
+        simplify("pd:[[1,5,2,4],[3,1,4,6],[5,3,6,2]]")
+    assert simplify(d, budget=0).diagram is d       # nothing done: the input itself
 
 
 def test_split_and_free_loops():

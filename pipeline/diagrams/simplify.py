@@ -196,8 +196,11 @@ def simplify(diagram: Diagram, *, seed: int = 0, budget: int = DEFAULT_BUDGET,
     >>> simplify(parse("torus:2,3")).diagram.n_crossings
     3
     """
-    if isinstance(budget, bool) or not isinstance(budget, int) or budget < 0:
-        raise DiagramError(f"simplify: budget {budget!r} must be a non-negative integer")
+    if not isinstance(diagram, Diagram):
+        raise DiagramError(f"simplify: expected a Diagram, got {type(diagram).__name__}")
+    for name, v in (("budget", budget), ("patience", 0 if patience is None else patience)):
+        if isinstance(v, bool) or not isinstance(v, int) or v < 0:
+            raise DiagramError(f"simplify: {name} {v!r} must be a non-negative integer")
     run = _Run(Work(diagram), budget)
     pat = max(20, 2 * diagram.n_crossings) if patience is None else int(patience)
     complete = True
