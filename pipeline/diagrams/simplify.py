@@ -90,6 +90,7 @@ class _Run:
     def __init__(self, w: Work, budget: int) -> None:
         self.w, self.budget = w, budget
         self.moves = {"R1": 0, "R2": 0, "nugatory": 0, "R3": 0}
+        self.dirty: set[int] = set()     # crossings looked at by the last descent
 
     def count(self, kind: str) -> None:
         if sum(self.moves.values()) >= self.budget:
@@ -104,6 +105,7 @@ class _Run:
             i = stack.pop()
             if i not in w.x:
                 continue
+            self.dirty.add(i)
             s = w.r1_at(i)
             if s is not None:
                 self.count("R1")
@@ -129,23 +131,49 @@ class _Run:
             self.descend(w.do_nugatory(nug[0]))
 
     def r3_walk(self, rng: random.Random, patience: int) -> None:
+        """Random R3 moves; candidate corners are kept in a pool that is refreshed
+        around every move (a picked corner is checked again before it is used)."""
         w = self.w
         while True:
             idle = 0
+            pool = [t[:2] for t in self._triangles()]
+            in_pool = set(pool)
             while idle < patience and len(w):
-                tri = self._triangles()
-                if not tri:
+                t = None
+                while pool and t is None:
+                    k = rng.randrange(len(pool))
+                    c = pool[k]
+                    pool[k] = pool[-1]
+                    pool.pop()
+                    in_pool.discard(c)
+                    t = self._valid(*c)
+                if t is None:
                     break
-                t = tri[rng.randrange(len(tri))]
                 self.count("R3")
+                self.dirty = set()
                 near = w.do_r3(*t)
                 idle = 0 if self.descend(near) else idle + 1
+                region = {c for c in near | self.dirty if c in w.x}
+                for c in sorted(region | {n for c in region for n in w.neighbours(c)}):
+                    for u in range(4):
+                        if (c, u) not in in_pool and self._valid(c, u) is not None:
+                            pool.append((c, u))
+                            in_pool.add((c, u))
             nug = w.nugatory()
             if not nug:
                 return
             self.count("nugatory")
             self.descend(w.do_nugatory(nug[0]))
             self.reduce()
+
+    def _valid(self, i: int, s: int):
+        w = self.w
+        if i not in w.x:
+            return None
+        t = w.triangle_at(i, s)
+        if t is None or not w.r3_ok(i, *t):
+            return None
+        return (i, *t)
 
     def _triangles(self) -> list:
         w, out, seen = self.w, [], set()
