@@ -9,7 +9,9 @@ The method
    (``random.Random(seed)``, so the result is a function of the input and the seed).
    An R3 move never changes the crossing count, and after each one the three
    crossings and their neighbours are checked for R1/R2 again, so the working
-   diagram is always the smallest one found.  The walk stops after ``patience``
+   diagram is always the smallest one found.  Candidate corners are kept in a pool
+   refreshed around each move (a step costs time near the move, not a scan of the
+   diagram; a picked corner is checked again).  The walk stops after ``patience``
    R3 moves in a row without a reduction (then nugatory crossings are checked once
    more and, if one was removed, the walk starts again) or when no triangle admits R3.
 
