@@ -38,6 +38,7 @@ from fractions import Fraction
 from typing import Any, Optional, Sequence
 
 from ..diagrams.canonical import canonical_text, diagram_id
+from ..diagrams import simplify as _diagram_facts
 from ..diagrams.diagram import Diagram
 from ..diagrams.notation import parse_notation, split_notation
 from ..errors import KnotLedgerError
@@ -125,15 +126,8 @@ def _torus_braid(word: list[int]) -> Optional[NormalForm]:
 # ---------------------------------------------------------------------- crossing numbers
 def is_reduced(diagram: Diagram) -> bool:
     """True when no crossing is nugatory: the four corners of every crossing lie in
-    four different faces."""
-    seen: dict[int, set] = {}
-    for f, cyc in enumerate(diagram.faces):
-        for (i, _) in cyc:
-            s = seen.setdefault(i, set())
-            if f in s:
-                return False
-            s.add(f)
-    return True
+    four different faces (:func:`pipeline.diagrams.simplify.is_reduced`)."""
+    return _diagram_facts.is_reduced(diagram)
 
 
 def _alternating_cn(row: dict) -> Optional[int]:
@@ -141,11 +135,14 @@ def _alternating_cn(row: dict) -> Optional[int]:
     d = row.get("diagram")
     alt, red, connected = row.get("alternating"), row.get("reduced"), row.get("connected")
     if isinstance(d, Diagram):
+        if alt is None and red is None and connected is None:
+            cn = _diagram_facts.alternating_crossing_number(d)
+            return None if cn is None else int(row.get("crossings") or cn)
         if d.n_crossings == 0:
             return None
         alt = d.is_alternating() if alt is None else alt
-        red = is_reduced(d) if red is None else red
-        connected = (len(d.pieces) == 1 and d.free_loops == 0) if connected is None else connected
+        red = _diagram_facts.is_reduced(d) if red is None else red
+        connected = _diagram_facts.is_connected(d) if connected is None else connected
     if alt and red and connected:
         if row.get("crossings") is not None:
             return int(row["crossings"])

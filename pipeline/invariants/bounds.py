@@ -41,6 +41,7 @@ from __future__ import annotations
 from math import ceil, isqrt
 from typing import Any, Mapping, Optional, Sequence
 
+from ..diagrams import simplify as _diagram_facts
 from ..diagrams.diagram import Diagram
 from .linking import linking_numbers
 from .poly import Laurent
@@ -65,31 +66,19 @@ __all__ = [
 def nugatory_crossings(diagram: Diagram) -> list[int]:
     """Indices of the nugatory crossings: those where one face meets itself.
 
-    A crossing is nugatory iff a circle in the plane meets the diagram only in it,
-    iff removing it disconnects the diagram's graph, iff two opposite corners of the
-    crossing belong to the same face (adjacent corners never do: they lie on
-    opposite sides of an edge).
+    See :func:`pipeline.diagrams.simplify.nugatory_crossings` (the one implementation).
     """
-    out = set()
-    for face in diagram.faces:
-        seen = set()
-        for (j, _) in face:
-            if j in seen:
-                out.add(j)
-            seen.add(j)
-    return sorted(out)
+    return _diagram_facts.nugatory_crossings(diagram)
 
 
 def is_reduced(diagram: Diagram) -> bool:
     """True when the diagram has no nugatory crossing."""
-    return not nugatory_crossings(diagram)
+    return _diagram_facts.is_reduced(diagram)
 
 
 def is_connected(diagram: Diagram) -> bool:
     """True for a diagram with one piece and no free loops (or a single free loop)."""
-    if diagram.n_crossings == 0:
-        return diagram.free_loops == 1
-    return len(diagram.pieces) == 1 and diagram.free_loops == 0
+    return _diagram_facts.is_connected(diagram)
 
 
 def crossing_number_bound(diagram: Diagram) -> tuple[int, bool]:
@@ -106,11 +95,10 @@ def crossing_number_bound(diagram: Diagram) -> tuple[int, bool]:
     >>> crossing_number_bound(parse("conway:2 2")), crossing_number_bound(parse("braid:1"))
     ((4, True), (0, False))
     """
-    nug = nugatory_crossings(diagram)
-    n = diagram.n_crossings
-    if n and not nug and is_connected(diagram) and diagram.is_alternating():
-        return n, True
-    return n - len(nug), False
+    cn = _diagram_facts.alternating_crossing_number(diagram)
+    if cn is not None:
+        return cn, True
+    return diagram.n_crossings - len(nugatory_crossings(diagram)), False
 
 
 def arf_invariant(determinant: int) -> Optional[int]:
