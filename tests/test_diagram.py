@@ -99,22 +99,6 @@ def test_invalid_pd_codes(pd, match):
         Diagram.from_pd(pd)
 
 
-def test_random_braid_closures_validate_and_count_faces():
-    rng = random.Random(1)
-    for _ in range(200):
-        strands = rng.randint(2, 5)
-        word = [rng.choice([-1, 1]) * rng.randint(1, strands - 1) for _ in range(rng.randint(1, 14))]
-        d = parse("braid:" + ",".join(map(str, word)))
-        assert d.n_crossings == len(word)
-        assert d.writhe == sum(1 if g > 0 else -1 for g in word)
-        # (Euler's c + 2 faces per piece is what validation itself enforces, so it is not
-        # re-asserted here.)  Independent: a closed braid has one Seifert circle per strand
-        # it uses, counted by brute force from the PD code (Yamada, Invent. Math. 89, 1987,
-        # for the converse direction; the braid direction is common practice)
-        assert _seifert_circles(d) == _strands_used(word)
-        assert sum(len(a) for a in d.arcs) == 2 * d.n_crossings
-
-
 def _seifert_circles(d) -> int:
     """Circles of the oriented smoothing, by brute force: at each crossing (a, b, c, d)
     the incoming under-strand a joins the outgoing over-strand, the incoming over-strand
@@ -142,3 +126,18 @@ def _strands_used(word) -> int:
     runs = sum(1 for k, g in enumerate(used) if k == 0 or g != used[k - 1] + 1)
     return len(used) + runs
 
+
+def test_random_braid_closures_validate_and_count_faces():
+    rng = random.Random(1)
+    for _ in range(200):
+        strands = rng.randint(2, 5)
+        word = [rng.choice([-1, 1]) * rng.randint(1, strands - 1) for _ in range(rng.randint(1, 14))]
+        d = parse("braid:" + ",".join(map(str, word)))
+        assert d.n_crossings == len(word)
+        assert d.writhe == sum(1 if g > 0 else -1 for g in word)
+        # (Euler's c + 2 faces per piece is what validation itself enforces, so it is not
+        # re-asserted here.)  Independent: a closed braid has one Seifert circle per strand
+        # it uses, counted by brute force from the PD code (Yamada, Invent. Math. 89, 1987,
+        # for the converse direction; the braid direction is common practice)
+        assert _seifert_circles(d) == _strands_used(word)
+        assert sum(len(a) for a in d.arcs) == 2 * d.n_crossings
