@@ -1,13 +1,16 @@
 """Build the knots table in bounded memory.
 
-:func:`pipeline.identify.classify.build_knots_table` needs every row of a knot key together,
+:func:`pipeline.identify.knots_table.build_knots_table` needs every row of a knot key together,
 and it annotates each key with the other keys that share one of its fingerprints.
-So the rows are split into *clusters*: connected components of the graph joining a
-knot key to the fingerprints of its rows (union-find over the distinct pairs, a
-structure the size of the number of knot types, not of the census).  Clusters are
+It also notes a fingerprint-only key whose rows share a ``diagram_id`` with a row of a
+normal-form key.  So the rows are split into *clusters*: connected components of the
+graph joining a knot key to the fingerprints and to the diagram ids of its rows
+(union-find over the distinct pairs, a structure the size of the number of distinct
+diagrams, not of the census rows).  Clusters are
 packed into batches of about ``batch_rows`` rows; one streaming pass spills every row
 (needed columns only) to the Arrow file of its batch, and each batch file is then read,
-handed to the classifier, and deleted — two linear passes over the table in all.  Every knot key and every fingerprint lives in exactly one batch, so the
+handed to the classifier, and deleted — two linear passes over the table in all.  Every
+knot key, every fingerprint and every diagram id lives in exactly one batch, so the
 result equals one call over all rows, while memory is bounded by the batch size
 (plus the largest cluster).
 """
@@ -47,20 +50,23 @@ def _slim(extras: str | None) -> str | None:
 def _batches(dataset, batch_rows: int) -> Iterator[list]:
     parent: dict = {}
     counts: dict = {}
-    for batch in dataset.to_batches(columns=["knot_key", "extras"]):
+    for batch in dataset.to_batches(columns=["knot_key", "extras", "diagram_id"]):
         keys = batch.column("knot_key").to_pylist()
         extras = batch.column("extras").to_pylist()
-        for key, ex in zip(keys, extras):
+        dids = batch.column("diagram_id").to_pylist()
+        for key, ex, did in zip(keys, extras, dids):
             k = ("k", key)
             parent.setdefault(k, k)
             counts[k] = counts.get(k, 0) + 1
             fp = (json.loads(ex).get("knot") or {}).get("fingerprint") if ex else None
-            if fp is not None:
-                f = ("f", fp)
-                parent.setdefault(f, f)
-                a, b = _find(parent, k), _find(parent, f)
-                if a != b:
-                    parent[a] = b
+            # a key joins the fingerprints of its rows (fingerprint notes) and their
+            # diagram ids (the same-diagram note): both are read across keys
+            for node in (("f", fp) if fp is not None else None, ("d", did) if did else None):
+                if node is not None:
+                    parent.setdefault(node, node)
+                    a, b = _find(parent, k), _find(parent, node)
+                    if a != b:
+                        parent[a] = b
     clusters: dict = {}
     for node, n in counts.items():
         root = _find(parent, node)

@@ -5,8 +5,8 @@ Hands on: knot keys (normal forms of the families, fingerprints otherwise), mirr
 proof status, and the rows of the knots table.
 
 Modules: :mod:`.normal_forms` (torus, Schubert, Bonahon–Siebenmann keys),
-:mod:`.fingerprint` (invariant fingerprints), :mod:`.classify` (key of a row, the knots
-table).  Imports diagrams and invariants only; never touches files.
+:mod:`.fingerprint` (invariant fingerprints), :mod:`.classify` (key of a row),
+:mod:`.knots_table` (the knots table: grouping, conflicts, crossing numbers, notes).  Imports diagrams and invariants only; never touches files.
 """
 
-__all__ = ["classify", "fingerprint", "normal_forms"]
+__all__ = ["classify", "fingerprint", "knots_table", "normal_forms"]
