@@ -454,7 +454,7 @@ def test_a_normal_form_contradicting_the_diagram_is_not_used():
 def test_small_montesinos_cases_do_not_claim_distinctness():
     # Elliptic cases (2,2,n), (2,3,3), (2,3,4), (2,3,5) lie outside the hypotheses of some
     # statements of the Bonahon–Siebenmann classification: no distinctness is claimed there.
-    from pipeline.identify.classify import _distinctness_note, _small_montesinos
+    from pipeline.identify.knots_table import _distinctness_note, _small_montesinos
     assert _small_montesinos("mont:1/6:1/2,1/3,1/3") and _small_montesinos("mont:0:1/2,1/2,1/9")
     assert not _small_montesinos("mont:1/105:1/3,1/5,1/7") and not _small_montesinos("2b:7/3")
     row = {"knot_key": "mont:1/6:1/2,1/3,1/3", "proof": "normal form"}

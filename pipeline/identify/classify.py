@@ -34,8 +34,7 @@ from __future__ import annotations
 
 import json
 import re
-from fractions import Fraction
-from typing import Any, Optional, Sequence
+from typing import Optional, Sequence
 
 from ..diagrams.canonical import canonical_text, diagram_id
 from ..diagrams import simplify as _diagram_facts
@@ -43,8 +42,7 @@ from ..diagrams.diagram import Diagram
 from ..diagrams.notation import parse_notation, split_notation
 from ..errors import KnotLedgerError
 from ..invariants.row import InvariantValues
-from .fingerprint import (_factors, _invert, _poly, fingerprint, jones_orientation_set,
-                          mirror_fingerprint)
+from .fingerprint import fingerprint, jones_orientation_set, mirror_fingerprint
 from .normal_forms import (CN_ALT, NormalForm, montesinos_nf, pretzel_nf, torus_nf, two_bridge_nf)
 
 __all__ = ["canonical_text", "diagram_id", "knot_key", "fingerprint", "build_knots_table",
@@ -237,5 +235,4 @@ def mark_duplicates(rows: list[dict]) -> list[Optional[int]]:
 # ---------------------------------------------------------------------- the knots table
 # grouping, conflicts, crossing-number arbitration and notes live in .knots_table;
 # re-exported here for callers of pipeline.identify.classify.build_knots_table.
-from .knots_table import (KeyConflictError, _distinctness_note, _small_montesinos,  # noqa: E402,F401
-                          build_knots_table)
+from .knots_table import KeyConflictError, build_knots_table  # noqa: E402,F401

@@ -8,12 +8,15 @@ A budget overrun or a failure in one invariant never loses the others: the value
 from __future__ import annotations
 
 import time
-from typing import Any, Callable, Optional
+from typing import TYPE_CHECKING, Any, Callable, Optional
 
 from ..diagrams.diagram import Diagram
 from ..errors import BudgetExceeded
 from ..numbers import primes_upto
 from .row import CensusRow, InvariantValues
+
+if TYPE_CHECKING:
+    from ..diagrams.notation import Notation
 
 __all__ = ["compute_all", "compute_row", "ALGORITHM_VERSIONS"]
 

@@ -59,6 +59,7 @@ def homfly_polynomial(diagram: Diagram, *, notation: Optional[str] = None,
 
     Examples
     --------
+    >>> from pipeline import parse
     >>> homfly_polynomial(parse("torus:2,3")).to_json()
     [[2, 0, 2], [2, 2, 1], [4, 0, -1]]
 
