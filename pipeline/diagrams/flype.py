@@ -40,7 +40,8 @@ are skipped.
 
 Orbit search
 ------------
-The orbit is searched breadth-first with one canonical text per diagram.  Its size is
+The orbit is searched breadth-first with one alternating map code per diagram
+(:func:`pipeline.diagrams.shadow.alternating_codes`, on flat twin arrays).  Its size is
 the product of the number of positions of every flype circuit's crossings, which is
 small for most diagrams but grows fast for Montesinos-like ones with long horizontal
 twist regions among many tangles; the ``budget`` (orbit members) turns a hopeless
@@ -61,12 +62,12 @@ from __future__ import annotations
 
 import json
 from collections import deque
-from typing import Iterator, NamedTuple
+from typing import Iterator
 
 from ..errors import BudgetExceeded, KnotLedgerError
-from .builder import PlanarBuilder
 from .canonical import canonical_text
 from .diagram import Diagram
+from .shadow import ShadowFlype, alternating_codes, apply_shadow_flype, shadow_flypes, to_diagram, twins
 
 __all__ = [
     "FLYPE_BUDGET",
@@ -91,19 +92,11 @@ class NotReducedAlternating(KnotLedgerError, ValueError):
     """The diagram is not a reduced, visibly prime, alternating diagram with one piece."""
 
 
-class FlypeMove(NamedTuple):
-    """A flype: crossing ``c``, its slot ``s`` (slots s, s+1 go into the tangle),
-    the tangle's other two end edges ``x`` (beside slot s+1) and ``y`` (beside s),
-    and the crossings of the tangle."""
-
-    c: int
-    s: int
-    x: int
-    y: int
-    tangle: frozenset
+#: A flype move (see :class:`pipeline.diagrams.shadow.ShadowFlype`).
+FlypeMove = ShadowFlype
 
 
-# ---------------------------------------------------------------------- faces
+# ---------------------------------------------------------------------- checks
 def _face_data(d: Diagram):
     """(face index of every slot, per face: {neighbour face: [shared edge labels]})."""
     face_of: dict[tuple[int, int], int] = {}
@@ -154,101 +147,23 @@ def check_reduced_prime_alternating(diagram: Diagram) -> None:
 
 
 # ---------------------------------------------------------------------- moves
-def _tangle(d: Diagram, c: int, s: int, cut: tuple[int, ...]) -> frozenset | None:
-    """Crossings inside the circle through the edges ``cut``, or None when the
-    circle does not cut off exactly those four edges from ``c``."""
-    pd = d.pd
-    start = {d.twin((c, s))[0], d.twin((c, (s + 1) % 4))[0]}
-    if c in start:
-        return None
-    inside, stack = set(start), list(start)
-    while stack:
-        i = stack.pop()
-        for r in range(4):
-            if pd[i][r] in cut:
-                continue
-            j = d.twin((i, r))[0]
-            if j == c:
-                return None
-            if j not in inside:
-                inside.add(j)
-                stack.append(j)
-    boundary = [v for v in cut if sum(1 for (i, _) in d._slots_of[v] if i in inside) != 1]
-    return None if boundary else frozenset(inside)
-
-
 def flype_moves(diagram: Diagram) -> Iterator[FlypeMove]:
     """Every nontrivial flype of a reduced alternating diagram (see the module notes)."""
-    d = diagram
-    face_of, adj = _face_data(d)
-    n = len(d.pd)
-    for c in range(n):
-        c_edges = set(d.pd[c])
-        for s in range(4):
-            f0 = face_of[(c, (s + 1) % 4)]
-            f1 = face_of[(c, (s + 2) % 4)]
-            f3 = face_of[(c, s)]
-            f4 = face_of[(c, (s + 3) % 4)]
-            for f2, xs in adj[f1].items():
-                if f2 in (f0, f1, f3, f4) or f2 not in adj[f3]:
-                    continue
-                for x in xs:
-                    for y in adj[f3][f2]:
-                        if x == y or x in c_edges or y in c_edges:
-                            continue
-                        cut = (d.pd[c][s], d.pd[c][(s + 1) % 4], x, y)
-                        t = _tangle(d, c, s, cut)
-                        if t is not None and 1 < len(t) < n - 1:
-                            yield FlypeMove(c, s, x, y, t)
+    return shadow_flypes(twins(diagram))
 
 
 def apply_flype(diagram: Diagram, move: FlypeMove) -> Diagram:
-    """The diagram after the flype ``move`` (from :func:`flype_moves`).
-
-    Picture: ``c`` has slots s = SE, s+1 = NE joined to the tangle's SW and NW ends,
-    ``x`` is the tangle's NE end and ``y`` its SE end.  The tangle is rotated by π
-    about the horizontal axis (its rotation system reflected, every crossing
-    changed) and a crossing drawn like ``c`` joins its new east ends to the old
-    ends of ``x`` and ``y``.
-    """
-    d = diagram
-    c, s, x, y, t = move
-    pd = d.pd
-    b = PlanarBuilder()
-    node = {}
-    for i in range(len(pd)):
-        if i != c:  # every PD crossing has its over-strand on slots 1, 3
-            node[i] = b.crossing(over_odd=(i not in t))
-    cn = b.crossing(over_odd=True)
-
-    def at(slot):
-        i, r = slot
-        return (node[i], (-r) % 4) if i in t else (node[i], r)
-
-    cs = [(c, (s + k) % 4) for k in range(4)]  # SE, NE, NW, SW
-    special = {pd[c][r] for r in range(4)} | {x, y}
-    for v, (p, q) in d._slots_of.items():
-        if v not in special:
-            b.join(at(p), at(q))
-    t_sw, t_nw = d.twin(cs[0]), d.twin(cs[1])
-    o_nw, o_sw = d.twin(cs[2]), d.twin(cs[3])
-    xp, xq = d._slots_of[x]
-    x_in, x_out = (xp, xq) if xp[0] in t else (xq, xp)
-    yp, yq = d._slots_of[y]
-    y_in, y_out = (yp, yq) if yp[0] in t else (yq, yp)
-    b.join(at(o_nw), at(t_sw))
-    b.join(at(o_sw), at(t_nw))
-    b.join(at(y_in), (cn, (s + 2) % 4))
-    b.join(at(x_in), (cn, (s + 3) % 4))
-    b.join((cn, (s + 1) % 4), at(x_out))
-    b.join((cn, s), at(y_out))
-    return b.diagram()
+    """The diagram after the flype ``move`` (from :func:`flype_moves`); see
+    :func:`pipeline.diagrams.shadow.apply_shadow_flype` for the picture."""
+    return to_diagram(*apply_shadow_flype(twins(diagram), [True] * len(diagram.pd), move))
 
 
 def flypes(diagram: Diagram) -> Iterator[Diagram]:
     """The diagrams one nontrivial flype away from ``diagram``."""
-    for m in flype_moves(diagram):
-        yield apply_flype(diagram, m)
+    tw = twins(diagram)
+    over = [True] * len(diagram.pd)
+    for m in shadow_flypes(tw):
+        yield to_diagram(*apply_shadow_flype(tw, over, m))
 
 
 # ---------------------------------------------------------------------- codes
@@ -257,8 +172,28 @@ def diagram_of_code(code: str) -> Diagram:
     return Diagram.from_pd(json.loads(code[3:]))
 
 
+def _orbit_states(diagram: Diagram, budget: int) -> dict:
+    """{code0: (twins, over)} over the flype orbit (codes from :mod:`.shadow`)."""
+    check_reduced_prime_alternating(diagram)
+    tw = twins(diagram)
+    over = [True] * len(diagram.pd)
+    states = {alternating_codes(tw, over)[0]: (tw, over)}
+    queue = deque([(tw, over)])
+    while queue:
+        tw, over = queue.popleft()
+        for m in shadow_flypes(tw):
+            tw2, over2 = apply_shadow_flype(tw, over, m)
+            code = alternating_codes(tw2, over2)[0]
+            if code not in states:
+                if len(states) >= budget:
+                    raise BudgetExceeded("flype", budget)
+                states[code] = (tw2, over2)
+                queue.append((tw2, over2))
+    return states
+
+
 def flype_orbit(diagram: Diagram, *, budget: int = FLYPE_BUDGET) -> list[str]:
-    """Canonical texts of every diagram in the flype orbit, sorted.
+    """Canonical texts of every diagram in the flype orbit, the class code first.
 
     Raises
     ------
@@ -268,20 +203,8 @@ def flype_orbit(diagram: Diagram, *, budget: int = FLYPE_BUDGET) -> list[str]:
         ``BudgetExceeded('flype', budget)`` when the orbit has more than ``budget``
         diagrams.
     """
-    check_reduced_prime_alternating(diagram)
-    first = canonical_text(diagram)
-    seen = {first}
-    queue = deque([diagram])
-    while queue:
-        d = queue.popleft()
-        for e in flypes(d):
-            code = canonical_text(e)
-            if code not in seen:
-                if len(seen) >= budget:
-                    raise BudgetExceeded("flype", budget)
-                seen.add(code)
-                queue.append(e)
-    return sorted(seen, key=_order)
+    states = _orbit_states(diagram, budget)
+    return [canonical_text(to_diagram(*states[k])) for k in sorted(states)]
 
 
 def _order(code: str):
@@ -291,12 +214,16 @@ def _order(code: str):
 def flype_codes(diagram: Diagram, *, budget: int = FLYPE_BUDGET) -> tuple[str, str]:
     """(code of the flype class, code of the mirror image's flype class).
 
-    Both are ``pd:`` texts (valid notation strings); the code is the smallest
-    canonical text of the orbit, shortest first, then as a string.
+    The code is the :func:`canonical_text` of the orbit member with the smallest
+    alternating map code (:func:`pipeline.diagrams.shadow.alternating_codes`); the
+    mirror's code is found from the same orbit with the crossing bit flipped.
     """
-    orbit = flype_orbit(diagram, budget=budget)
-    mirrored = [canonical_text(diagram_of_code(t).mirror()) for t in orbit]
-    return orbit[0], min(mirrored, key=_order)
+    states = _orbit_states(diagram, budget)
+    k0 = min(states)
+    best1, k1 = min((alternating_codes(*st)[1], k) for k, st in states.items())
+    tw1, over1 = states[k1]
+    return (canonical_text(to_diagram(*states[k0])),
+            canonical_text(to_diagram(tw1, [not o for o in over1])))
 
 
 def flype_code(diagram: Diagram, *, budget: int = FLYPE_BUDGET) -> str:
@@ -321,7 +248,8 @@ def flype_code(diagram: Diagram, *, budget: int = FLYPE_BUDGET) -> str:
     >>> flype_code(parse("conway:2 2")) == flype_code(parse("braid:1,-2,1,-2"))
     True
     """
-    return flype_orbit(diagram, budget=budget)[0]
+    states = _orbit_states(diagram, budget)
+    return canonical_text(to_diagram(*states[min(states)]))
 
 
 def is_amphichiral(diagram: Diagram, *, budget: int = FLYPE_BUDGET) -> bool:

@@ -57,10 +57,11 @@ from functools import lru_cache
 from typing import Iterator
 
 from ...errors import NotationError
-from ..builder import PlanarBuilder
 from ..canonical import canonical_text
 from ..diagram import Diagram
-from ..flype import _order, diagram_of_code, flypes
+from ..flype import _order, diagram_of_code
+from ..shadow import (alternating_codes, alternating_over, apply_shadow_flype, extensions,
+                      n_components, prime_reduced, shadow_flypes, to_diagram, twins)
 
 __all__ = ["MIN_CROSSINGS", "MAX_CROSSINGS", "codes", "diagrams", "diagram", "from_notation"]
 
@@ -69,150 +70,77 @@ MAX_CROSSINGS = 16
 
 
 # ---------------------------------------------------------------------- shadows
-def _faces(tw: list[int]) -> list[int]:
-    """Face index of every flat slot (walk: along the edge, then the next slot ccw)."""
-    face = [-1] * len(tw)
-    k = 0
-    for h0 in range(len(tw)):
-        if face[h0] >= 0:
-            continue
-        h = h0
-        while face[h] < 0:
-            face[h] = k
-            g = tw[h]
-            h = (g & ~3) | ((g + 1) & 3)
-        k += 1
-    return face
-
-
-def _prime_reduced(tw: list[int]) -> bool:
-    """No nugatory crossing and no two faces sharing two edges."""
-    face = _faces(tw)
-    for b in range(0, len(tw), 4):
-        if face[b] == face[b + 2] or face[b + 1] == face[b + 3]:
-            return False
-    pairs = set()
-    for h, g in enumerate(tw):
-        if h < g:
-            p = (face[h], face[g]) if face[h] < face[g] else (face[g], face[h])
-            if p in pairs:
-                return False
-            pairs.add(p)
-    return True
-
-
-def _n_components(tw: list[int]) -> int:
-    seen = [False] * len(tw)
-    k = 0
-    for h0 in range(len(tw)):
-        if seen[h0]:
-            continue
-        k += 1
-        h = h0
-        while not seen[h]:
-            seen[h] = seen[h ^ 2] = True
-            h = tw[h ^ 2]
-    return k
-
-
-def _extensions(tw: list[int]) -> Iterator[list[int]]:
-    """Every shadow with one more crossing pulled out of two edges of one face."""
-    face = _faces(tw)
-    cycles: dict[int, list[int]] = {}
-    for h, f in enumerate(face):
-        cycles.setdefault(f, [])
-    for f in cycles:
-        h0 = face.index(f)
-        h, cyc = h0, []
-        while True:
-            cyc.append(h)
-            g = tw[h]
-            h = (g & ~3) | ((g + 1) & 3)
-            if h == h0:
-                break
-        cycles[f] = cyc
-    x = len(tw)
-    for cyc in cycles.values():
-        for a in range(len(cyc)):
-            for b in range(a + 1, len(cyc)):
-                ha, hb = cyc[a], cyc[b]
-                ga, gb = tw[ha], tw[hb]
-                if hb in (ga, ha) or {ha, ga} & {hb, gb}:
-                    continue
-                new = tw + [0, 0, 0, 0]
-                for p, q in ((ha, x), (gb, x + 1), (hb, x + 2), (ga, x + 3)):
-                    new[p], new[q] = q, p
-                yield new
-
-
-def _tw_of(d: Diagram) -> list[int]:
-    tw = [0] * (4 * len(d.pd))
-    for (i, s), (j, t) in d._slots_of.values():
-        tw[4 * i + s], tw[4 * j + t] = 4 * j + t, 4 * i + s
-    return tw
-
-
-def _alternating(tw: list[int]) -> Diagram:
-    """The alternating diagram on a shadow (one of the mirror pair)."""
-    face = _faces(tw)
-    colour: dict[int, int] = {face[0]: 0}
-    stack = [face[0]]
-    beside: dict[int, list[int]] = {}
-    for h, g in enumerate(tw):
-        beside.setdefault(face[h], []).append(face[g])
-    while stack:
-        f = stack.pop()
-        for g in beside[f]:
-            if g not in colour:
-                colour[g] = 1 - colour[f]
-                stack.append(g)
-    b = PlanarBuilder()
-    n = len(tw) // 4
-    for i in range(n):  # corner (0, 1) of crossing i is the face of slot (i, 1)
-        b.crossing(over_odd=colour[face[4 * i + 1]] == 0)
-    for h, g in enumerate(tw):
-        if h < g:
-            b.join((h // 4, h % 4), (g // 4, g % 4))
-    return b.diagram()
-
-
-def _key(d: Diagram) -> str:
-    return min(canonical_text(d), canonical_text(d.mirror()), key=_order)
+def _key(tw: list[int]) -> tuple[int, ...]:
+    """The shadow up to every homeomorphism of the sphere (the smaller mirror code)."""
+    return min(alternating_codes(tw, alternating_over(tw)))
 
 
 @lru_cache(maxsize=None)
 def _level(n: int) -> tuple[tuple[int, ...], ...]:
-    """Every prime reduced shadow with n >= 2 crossings (flat twin arrays), sorted."""
+    """Every prime reduced shadow with n >= 2 crossings (twin arrays), by key."""
     if n == 2:
-        return (tuple(_tw_of(Diagram.from_pd([(4, 1, 3, 2), (2, 3, 1, 4)]))),)
-    found: dict[str, tuple[int, ...]] = {}
+        return (tuple(twins(Diagram.from_pd([(4, 1, 3, 2), (2, 3, 1, 4)]))),)
+    found: dict[tuple[int, ...], tuple[int, ...]] = {}
     for tw in _level(n - 1):
-        for new in _extensions(list(tw)):
-            if _prime_reduced(new):
-                k = _key(_alternating(new))
+        for new in extensions(list(tw)):
+            if prime_reduced(new):
+                k = _key(new)
                 if k not in found:
                     found[k] = tuple(new)
-    return tuple(found[k] for k in sorted(found, key=_order))
+    return tuple(found[k] for k in sorted(found))
 
 
-def _classes(keys: list[str]) -> list[str]:
-    """Group shadow keys into flype classes up to mirror; the smallest key of each."""
+def _last_level(n: int, one_component: bool) -> Iterator[list[int]]:
+    """The shadows of the last level with (or without) one component, deduplicated."""
+    seen: set[tuple[int, ...]] = set()
+    for tw in _level(n - 1):
+        for new in extensions(list(tw)):
+            if (n_components(new) == 1) == one_component and prime_reduced(new):
+                k = _key(new)
+                if k not in seen:
+                    seen.add(k)
+                    yield new
+
+
+def _classes(shadows: list[list[int]]) -> list[str]:
+    """Flype classes up to mirror of the alternating diagrams on ``shadows``.
+
+    Returns the code of each class: the canonical text of the alternating diagram (or
+    its mirror) whose alternating map code is the smallest in the class.
+    """
+    keys = {}
+    best = {}
+    for tw in shadows:
+        over = alternating_over(tw)
+        c0, c1 = alternating_codes(tw, over)
+        k = min(c0, c1)
+        keys[k] = (tw, over)
+        best[k] = (c0, False) if c0 <= c1 else (c1, True)
     parent = {k: k for k in keys}
 
-    def find(k: str) -> str:
+    def find(k):
         while parent[k] != k:
             parent[k] = parent[parent[k]]
             k = parent[k]
         return k
 
-    for k in keys:
-        for e in flypes(diagram_of_code(k)):
-            a, b = find(k), find(_key(e))
+    for k, (tw, over) in keys.items():
+        for m in shadow_flypes(tw):
+            tw2, _ = apply_shadow_flype(tw, over, m)
+            a, b = find(k), find(_key(tw2))
             if a != b:
-                if _order(a) < _order(b):
-                    a, b = b, a
-                parent[a] = b
-    return sorted({find(k) for k in keys}, key=_order)
+                parent[max(a, b)] = min(a, b)
+    out = {}
+    for k in keys:
+        r = find(k)
+        if r not in out or best[k] < best[out[r]]:
+            out[r] = k
+    codes = []
+    for k in out.values():
+        tw, over = keys[k]
+        flip = best[k][1]
+        codes.append(canonical_text(to_diagram(tw, [o != flip for o in over])))
+    return sorted(codes, key=_order)
 
 
 def _check_n(n: int) -> None:
@@ -225,11 +153,9 @@ def _check_n(n: int) -> None:
 def _codes(n: int, one_component: bool) -> tuple[str, ...]:
     if n < 2:
         return ()
-    keys = []
-    for tw in _level(n):
-        if (_n_components(list(tw)) == 1) == one_component:
-            keys.append(_key(_alternating(list(tw))))
-    return tuple(_classes(keys))
+    if n == 2:
+        return () if one_component else tuple(_classes([list(t) for t in _level(2)]))
+    return tuple(_classes(list(_last_level(n, one_component))))
 
 
 def codes(n: int, *, links: bool = False) -> list[str]:
