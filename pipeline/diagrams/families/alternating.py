@@ -53,6 +53,7 @@ References
 
 from __future__ import annotations
 
+import random
 from functools import lru_cache
 from typing import Iterator
 
@@ -63,7 +64,8 @@ from ..flype import _order, diagram_of_code
 from ..shadow import (alternating_codes, alternating_over, apply_shadow_flype, extensions,
                       n_components, prime_reduced, shadow_flypes, to_diagram, twins)
 
-__all__ = ["MIN_CROSSINGS", "MAX_CROSSINGS", "codes", "diagrams", "diagram", "from_notation"]
+__all__ = ["MIN_CROSSINGS", "MAX_CROSSINGS", "codes", "diagrams", "diagram", "from_notation",
+           "random_diagram"]
 
 MIN_CROSSINGS = 1
 MAX_CROSSINGS = 16
@@ -210,3 +212,21 @@ def from_notation(args: str, *, links: bool = False) -> Diagram:
     if len(parts) != 2 or not all(p.strip().isdigit() for p in parts):
         raise NotationError(f"alt: {args!r} is not N:I (crossings and a 1-based index)")
     return diagram(int(parts[0]), int(parts[1]), links=links)
+
+
+def random_diagram(n: int, *, seed: int = 0) -> Diagram:
+    """A reduced prime alternating diagram with n >= 2 crossings, grown at random.
+
+    From the Hopf shadow, repeatedly a random extension (:func:`extensions`) that stays
+    prime and reduced is taken; deterministic in ``seed``, not uniformly distributed.
+    Any size (no [1, 16] limit): meant for tests and benchmarks.
+    """
+    if isinstance(n, bool) or not isinstance(n, int) or n < 2:
+        raise NotationError(f"alternating: random diagram size {n!r} must be an integer >= 2")
+    rng = random.Random(seed)
+    tw = list(_level(2)[0])
+    while len(tw) < 4 * n:
+        options = list(extensions(tw))
+        rng.shuffle(options)
+        tw = next(e for e in options if prime_reduced(e))
+    return to_diagram(tw, alternating_over(tw))
