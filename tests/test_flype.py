@@ -143,3 +143,27 @@ def test_orbit_members_are_diagrams_of_the_code_type():
     orbit = flype_orbit(d)
     assert canonical_text(d) in orbit
     assert flype_code(d) == orbit[0]
+
+
+@pytest.mark.parametrize("seed", range(8))
+def test_random_diagrams_keep_their_code_and_invariants_under_flypes(seed):
+    from pipeline.diagrams.families.alternating import random_diagram
+    rng = random.Random(seed)
+    d = random_diagram(10 + seed % 4, seed=seed)
+    code, det = flype_code(d), determinant(d)
+    v = _unit_free(jones_polynomial(d))
+    e = d
+    for _ in range(4):
+        nxt = list(flypes(e))
+        if not nxt:
+            break
+        e = rng.choice(nxt)
+        assert determinant(e) == det and _unit_free(jones_polynomial(e)) == v
+    assert flype_code(_shuffled(e, rng)) == code
+    assert flype_code(Diagram.from_pd(turn_over_pd(e))) == code
+
+
+def test_random_diagram_refuses_tiny_sizes():
+    from pipeline.diagrams.families.alternating import random_diagram
+    with pytest.raises(KnotLedgerError, match="must be an integer >= 2"):
+        random_diagram(1)

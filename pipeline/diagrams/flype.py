@@ -15,8 +15,9 @@ prime links on S² represent the same (unoriented) link iff they are related by 
 finite sequence of flypes (and isotopies of S²).  Hence the *flype class* of a
 reduced prime alternating diagram is a complete invariant of the link type, and
 
-``flype_code(D)`` = the smallest :func:`pipeline.diagrams.canonical.canonical_text`
-over the flype orbit of ``D``
+``flype_code(D)`` = :func:`pipeline.diagrams.canonical.canonical_text` of the orbit
+member whose alternating map code (:func:`pipeline.diagrams.shadow.alternating_codes`)
+is the smallest
 
 is a normal form: equal codes iff the same link.  ``canonical_text`` already
 identifies relabelling, sphere isotopy, turning the diagram over (a rotation by π of

@@ -13,9 +13,9 @@ correspond to *smoothing* the crossing of e in the medial.  So every prime reduc
 shadow with n crossings arises from one with n − 1 crossings by the inverse move:
 inside a face, pull two of its boundary edges together into a new crossing.  We grow
 all prime reduced shadows from the Hopf shadow (G = two parallel edges), level by
-level, and deduplicate by the canonical text of the alternating diagram
-(:func:`pipeline.diagrams.canonical.canonical_text`, minimised with its mirror, so a
-shadow is taken up to every homeomorphism of the sphere).
+level, and deduplicate by the alternating map code of the shadow
+(:func:`pipeline.diagrams.shadow.alternating_codes`, the smaller of the diagram's and
+its mirror's, so a shadow is taken up to every homeomorphism of the sphere).
 
 At the last level the one-component shadows (or all, for links) are grouped into
 flype classes up to mirror image: two shadows are joined when a flype
@@ -27,12 +27,14 @@ union of one-step flypes finds whole classes.
 
 Order (documented, deterministic)
 ---------------------------------
-Each type is given by ``code`` = the smaller (shortest, then as a string) of the
-flype codes of the type and of its mirror (:func:`pipeline.diagrams.flype.flype_codes`);
-its diagram is the diagram of that code.  Types are sorted by code and numbered
-from 1: ``diagram(n, i)`` is the i-th.  With ``links=True`` the knots come first in
-the same order, then the links (components > 1) sorted by code.  The order depends
-only on the codes, not on the generation.
+Each type is given by ``code``: of the type and its mirror image, the
+:func:`pipeline.diagrams.flype.flype_code` whose alternating map code is smaller (so
+``flype_code(diagram_of_code(code)) == code`` and ``code`` is one of
+``flype_codes(...)``); its diagram is the diagram of that code.  Types are sorted by
+code (shortest text first, then as a string) and numbered from 1: ``diagram(n, i)``
+is the i-th.  With ``links=True`` the knots come first in the same order, then the
+links (components > 1) sorted the same way.  The order depends only on the codes,
+not on the generation.
 
 Counts checked in the tests: 1, 1, 2, 3, 7, 18, 41, 123 prime alternating knots for
 n = 3…10 (J. Hoste, M. Thistlethwaite, J. Weeks, "The first 1,701,936 knots",
