@@ -85,8 +85,9 @@ __all__ = [
     "diagram_of_code",
 ]
 
-#: Default budget: the most diagrams one flype orbit may have before giving up.
-FLYPE_BUDGET = 20000
+#: Default budget: the most diagrams one flype orbit may have before giving up
+#: (about 5-30 ms per member at 40 crossings, so at most about a minute there).
+FLYPE_BUDGET = 2000
 
 
 class NotReducedAlternating(KnotLedgerError, ValueError):
