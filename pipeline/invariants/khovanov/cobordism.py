@@ -147,14 +147,30 @@ def compose_topology(m1: Matching, m2: Matching, m3: Matching):
                  for r, (a, b, _, c) in comps.items())
 
 
+@lru_cache(maxsize=500_000)
+def _compose_terms(m1: Matching, m2: Matching, m3: Matching, d1: frozenset, d2: frozenset) -> tuple:
+    """Normal form of (disks of m1∪m2 dotted at d1) then (disks of m2∪m3 dotted at d2)."""
+    parts = [reduce_component(circ, chi, len(d1 & a) + len(d2 & b))
+             for a, b, chi, circ in compose_topology(m1, m2, m3)]
+    if not all(parts):
+        return ()
+    out: dict = {}
+    expand(parts, 1, out)
+    return tuple(out.items())
+
+
 def compose(m1: Matching, m2: Matching, m3: Matching, f: dict, g: dict, scale) -> dict:
     """``scale · (g ∘ f)`` for ``f: m1 → m2`` and ``g: m2 → m3`` in normal form."""
-    topo = compose_topology(m1, m2, m3)
+    if not m2:  # scalars (matchings of no points)
+        return {frozenset(): scale * f[frozenset()] * g[frozenset()]}
     out: dict = {}
     for d1, c1 in f.items():
         for d2, c2 in g.items():
-            parts = [reduce_component(circ, chi, len(d1 & a) + len(d2 & b))
-                     for a, b, chi, circ in topo]
-            if all(parts):
-                expand(parts, scale * c1 * c2, out)
+            sc = scale * c1 * c2
+            for ds, v in _compose_terms(m1, m2, m3, d1, d2):
+                new = out.get(ds, 0) + sc * v
+                if new:
+                    out[ds] = new
+                else:
+                    del out[ds]
     return out

@@ -63,35 +63,34 @@ class TangleComplex:
         pair = (min(p, r), max(p, r))
         self.objs = {k: (tuple(sorted(m + (pair,))), i, q) for k, (m, i, q) in self.objs.items()}
 
+    def _is_iso(self, a: int, b: int) -> bool:
+        ma, _, qa = self.objs[a]
+        mb, _, qb = self.objs[b]
+        return qa == qb and ma == mb and frozenset() in self.out[a][b]
+
     def eliminate(self) -> None:
-        """Gaussian elimination of every isomorphism, cheapest first, until none is left."""
-        while True:
-            cands = []
-            for a, targets in self.out.items():
-                ma, _, qa = self.objs[a]
-                for b, f in targets.items():
-                    mb, _, qb = self.objs[b]
-                    if qa == qb and ma == mb and frozenset() in f:
-                        cands.append(((len(targets) - 1) * (len(self.inc[b]) - 1), a, b))
-            if not cands:
-                return
-            cands.sort()
-            gone: set[int] = set()
-            for _, a, b in cands:
-                if a in gone or b in gone or b not in self.out.get(a, {}):
-                    continue
-                gone.update(self._touching(a, b))
-                self._cancel(a, b)
+        """Gaussian elimination of every isomorphism until none is left.
 
-    def _touching(self, a: int, b: int) -> set[int]:
-        return {a, b} | set(self.out[a]) | self.inc[b]
+        The isomorphisms present at the start are cancelled cheapest first (least
+        fill-in); an isomorphism created by a cancellation is cancelled next.
+        """
+        cands = [((len(t) - 1) * (len(self.inc[b]) - 1), a, b)
+                 for a, t in self.out.items() for b in t if self._is_iso(a, b)]
+        cands.sort(reverse=True)
+        stack = [(a, b) for _, a, b in cands]
+        while stack:
+            a, b = stack.pop()
+            if a in self.out and b in self.out[a] and self._is_iso(a, b):
+                stack.extend(self._cancel(a, b))
 
-    def _cancel(self, a: int, b: int) -> None:
+    def _cancel(self, a: int, b: int) -> list[tuple[int, int]]:
+        """Cancel the isomorphism a → b; return the new isomorphisms it creates."""
         phi = self.out[a][b][frozenset()]
         scale = -1 / phi
         m = self.objs[a][0]
         sources = [x for x in self.inc[b] if x != a]
         targets = [(y, g) for y, g in self.out[a].items() if y != b]
+        created = []
         for x in sources:
             gamma = self.out[x][b]
             mx = self.objs[x][0]
@@ -99,12 +98,15 @@ class TangleComplex:
                 extra = compose(mx, m, self.objs[y][0], gamma, delta, scale)
                 if extra:
                     self._add_to(x, y, extra)
+                    if y in self.out[x] and self._is_iso(x, y):
+                        created.append((x, y))
         for k in (a, b):
             for y in self.out[k]:
                 self.inc[y].discard(k)
             for x in self.inc[k]:
                 self.out[x].pop(k, None)
             del self.out[k], self.inc[k], self.objs[k]
+        return created
 
     def _add_to(self, x: int, y: int, extra: dict) -> None:
         cur = self.out[x].get(y)
@@ -207,8 +209,9 @@ def _glue_topology(t_pieces, x_pieces, src, tgt):
                  for a, chi, circ, sl, tl in comps.values())
 
 
-def _glued_morphism(topo, dots: frozenset, eps_src, eps_tgt, scale, into: dict) -> None:
-    """Add one term of a glued map, delooped at (eps_src, eps_tgt), into ``into``.
+@lru_cache(maxsize=500_000)
+def _glued_terms(topo, dots: frozenset, eps_src, eps_tgt) -> tuple:
+    """One term of a glued map, delooped at (eps_src, eps_tgt): ``((dotted circles, int), ...)``.
 
     Source loops are capped by a cup (ε = +) or a dotted cup (ε = −); target loops by
     a cap (ε = −) or by ``dotted cap − h·cap`` (ε = +), the delooping maps of [2]_.
@@ -216,17 +219,19 @@ def _glued_morphism(topo, dots: frozenset, eps_src, eps_tgt, scale, into: dict) 
     parts = []
     for tids, chi, circ, sl, tl in topo:
         d = len(dots & tids) + sum(1 for k in sl if eps_src[k] < 0)
-        plus_t = [k for k in tl if eps_tgt[k] > 0]
+        plus_t = sum(1 for k in tl if eps_tgt[k] > 0)
         terms: dict = {}
-        for extra in itertools.product((1, 0), repeat=len(plus_t)):
-            sign = -1 if (len(extra) - sum(extra)) % 2 else 1
+        for extra in itertools.product((1, 0), repeat=plus_t):
+            sign = -1 if (plus_t - sum(extra)) % 2 else 1
             for ds, c in reduce_component(circ, chi, d + sum(extra)):
                 terms[ds] = terms.get(ds, 0) + sign * c
         comp = [(ds, c) for ds, c in terms.items() if c]
         if not comp:
-            return
+            return ()
         parts.append(comp)
-    expand(parts, scale, into)
+    out: dict = {}
+    expand(parts, 1, out)
+    return tuple(out.items())
 
 
 def _strips(m) -> tuple:
@@ -276,7 +281,13 @@ def _connect(new: TangleComplex, topo, f: dict, tab1: dict, tab2: dict, scale) -
         for e2, b in tab2.items():
             mor: dict = {}
             for dots, c in f.items():
-                _glued_morphism(topo, dots, e1, e2, scale * c, mor)
+                sc = scale * c
+                for ds, v in _glued_terms(topo, dots, e1, e2):
+                    new_c = mor.get(ds, 0) + sc * v
+                    if new_c:
+                        mor[ds] = new_c
+                    else:
+                        del mor[ds]
             if mor:
                 new._add_to(a, b, mor)
 
