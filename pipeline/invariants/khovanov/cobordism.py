@@ -172,5 +172,5 @@ def compose(m1: Matching, m2: Matching, m3: Matching, f: dict, g: dict, scale) -
                 if new:
                     out[ds] = new
                 else:
-                    del out[ds]
+                    out.pop(ds, None)
     return out

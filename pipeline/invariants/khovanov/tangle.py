@@ -287,7 +287,7 @@ def _connect(new: TangleComplex, topo, f: dict, tab1: dict, tab2: dict, scale) -
                     if new_c:
                         mor[ds] = new_c
                     else:
-                        del mor[ds]
+                        mor.pop(ds, None)
             if mor:
                 new._add_to(a, b, mor)
 
