@@ -23,7 +23,7 @@ from pipeline.invariants.coloring import determinant
 from pipeline.invariants.jones import jones_polynomial
 from pipeline.invariants.khovanov import (cube_khovanov, jones_from_khovanov, kh_width, khovanov_data,
                                           khovanov_homology, mirror_ranks, ranks_from_json,
-                                          ranks_to_json, rasmussen_s)
+                                          ranks_to_json, rasmussen_s, reduced_khovanov)
 from pipeline.invariants.signature import signature
 
 
@@ -100,6 +100,8 @@ def test_fast_route_matches_the_cube_on_random_braids(wb):
         return
     for field in (0, 2):
         assert kh(d, field) == cube_khovanov(d, modulus=field)
+        if d.n_components == 1:
+            assert reduced_khovanov(d, field=field) == cube_khovanov(d, modulus=field, reduced=True)
 
 
 def _random_pd_diagrams():
@@ -183,6 +185,34 @@ def test_alternating_knots_are_thin_with_rank_det_plus_one(text):
     assert kh_width(ranks) == 2
     assert sum(ranks.values()) == determinant(d) + 1
     assert rasmussen_s(d) == -sigma
+    # reduced: one diagonal j − 2i = −σ, rank det (Khovanov, Experiment. Math. 12 (2003);
+    # Lee 2005) *(memory)*
+    red = reduced_khovanov(d)
+    assert {j - 2 * i for (i, j) in red} == {-sigma}
+    assert sum(red.values()) == determinant(d)
+
+
+@settings(max_examples=20, deadline=None)
+@given(braid_words(max_len=12))
+@example(([1, 1, 1, 2, -1, 2, 2, 2], 3))
+def test_reduced_homology_of_knots(wb):
+    word, strands = wb
+    d = braid.diagram(word, strands=strands)
+    if d.n_components != 1:
+        return
+    red_q, red_2 = reduced_khovanov(d), reduced_khovanov(d, field=2)
+    # Euler characteristic of the reduced theory is V at t^½ = −q (no factor q + q⁻¹):
+    # multiply by q + q⁻¹ (i.e. tensor with V) and compare with Jones
+    def times_v(r):
+        out = {}
+        for (i, j), n in r.items():
+            for e in (1, -1):
+                out[(i, j + e)] = out.get((i, j + e), 0) + n
+        return out
+    assert jones_from_khovanov(times_v(red_q)) == jones_polynomial(d)
+    # over F₂, Kh ≅ Khr ⊗ (q + q⁻¹) *(memory: A. Shumakovitch, "Torsion of Khovanov
+    # homology", Fund. Math. 225 (2014), Cor. 3.2.C)*
+    assert kh(d, 2) == times_v(red_2)
 
 
 # ----------------------------------------------------------------- Rasmussen's s
@@ -213,7 +243,9 @@ def test_khovanov_data_agrees_with_the_single_functions():
     assert ranks_from_json(data.khovanov_f2) == kh(d, 2)
     assert data.rasmussen_s == rasmussen_s(d) == 6
     assert data.kh_width == 3          # T(3,4) = 8_19 is Kh-thick
+    assert ranks_from_json(data.khovanov_reduced) == reduced_khovanov(d)
     assert khovanov_data(parse("braid:1,1")).rasmussen_s is None
+    assert khovanov_data(parse("braid:1,1")).khovanov_reduced is None
 
 
 # ----------------------------------------------------------------- Markov moves
@@ -268,6 +300,8 @@ def test_unknot_and_free_loops():
     assert kh(Diagram.from_pd([], free_loops=2)) == {(0, -2): 1, (0, 0): 2, (0, 2): 1}
     assert kh(Diagram.from_pd([(1, 1, 2, 2)])) == {(0, -1): 1, (0, 1): 1}
     assert rasmussen_s(Diagram.from_pd([(1, 1, 2, 2)])) == 0
+    assert reduced_khovanov(Diagram.from_pd([(1, 1, 2, 2)])) == {(0, 0): 1}
+    assert reduced_khovanov(Diagram.from_pd([], free_loops=1)) == {(0, 0): 1}
 
 
 @pytest.mark.parametrize("call,exc,match", [
@@ -279,8 +313,9 @@ def test_unknot_and_free_loops():
     (lambda: khovanov_homology(parse("torus:2,3"), field=4), ValueError, "field 4 is not a prime"),
     (lambda: khovanov_homology(parse("torus:2,3"), field=1), ValueError, "field 1"),
     (lambda: rasmussen_s(parse("torus:2,4")), DiagramError, "2 components"),
+    (lambda: reduced_khovanov(parse("torus:2,4")), DiagramError, "reduced_khovanov: the diagram has 2"),
 ], ids=["budget-small", "budget-zero", "data-budget", "s-budget", "budget-negative", "field-4",
-        "field-1", "s-of-a-link"])
+        "field-1", "s-of-a-link", "reduced-of-a-link"])
 def test_documented_errors(call, exc, match):
     with pytest.raises(exc, match=match):
         call()

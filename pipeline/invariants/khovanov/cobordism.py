@@ -42,7 +42,7 @@ __all__ = ["Matching", "cycles", "reduce_component", "expand", "compose_topology
 Matching = tuple[tuple[int, int], ...]
 
 
-@lru_cache(maxsize=None)
+@lru_cache(maxsize=50_000)
 def cycles(m1: Matching, m2: Matching) -> tuple[tuple[int, ...], ...]:
     """The cycles of ``m1 ∪ m2`` as sorted point tuples, ordered by their smallest point."""
     nxt1, nxt2 = {}, {}
@@ -110,7 +110,7 @@ def expand(parts: list[list[tuple[frozenset, int]]], scale, into: dict) -> None:
                 into.pop(dots, None)
 
 
-@lru_cache(maxsize=200_000)
+@lru_cache(maxsize=50_000)
 def compose_topology(m1: Matching, m2: Matching, m3: Matching):
     """Connected components of (cobordism m1→m2) ∘ (cobordism m2→m3) in disk normal form.
 
@@ -147,7 +147,7 @@ def compose_topology(m1: Matching, m2: Matching, m3: Matching):
                  for r, (a, b, _, c) in comps.items())
 
 
-@lru_cache(maxsize=500_000)
+@lru_cache(maxsize=100_000)
 def _compose_terms(m1: Matching, m2: Matching, m3: Matching, d1: frozenset, d2: frozenset) -> tuple:
     """Normal form of (disks of m1∪m2 dotted at d1) then (disks of m2∪m3 dotted at d2)."""
     parts = [reduce_component(circ, chi, len(d1 & a) + len(d2 & b))

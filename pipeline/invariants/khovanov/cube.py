@@ -24,6 +24,7 @@ References
 .. [1] D. Bar-Natan, "On Khovanov's categorification of the Jones polynomial",
    Algebr. Geom. Topol. 2 (2002), 337–370.
 .. [2] M. Khovanov, "A categorification of the Jones polynomial", Duke Math. J. 101 (2000).
+.. [3] M. Khovanov, "Patterns in knot cohomology I", Experiment. Math. 12 (2003).
 """
 
 from __future__ import annotations
@@ -59,7 +60,7 @@ def _loops(pd, state) -> tuple[list[frozenset], dict[int, int]]:
     return loops, where
 
 
-def cube_khovanov(diagram: Diagram, *, modulus: int = 0) -> dict[tuple[int, int], int]:
+def cube_khovanov(diagram: Diagram, *, modulus: int = 0, reduced: bool = False) -> dict[tuple[int, int], int]:
     """Ranks of Kh^{i,j} from the full cube of resolutions (Bar-Natan's conventions [1]_).
 
     Parameters
@@ -67,6 +68,10 @@ def cube_khovanov(diagram: Diagram, *, modulus: int = 0) -> dict[tuple[int, int]
     diagram : Diagram
     modulus : int, optional
         0 for ranks over Q (default), a prime p for ranks over F_p.
+    reduced : bool, optional
+        The reduced theory [3]_: the subcomplex in which the loop through the first
+        label of the first crossing carries v₋, quantum degrees raised by one (the
+        unknot has rank 1 at (0, 0)).  Needs at least one crossing.
 
     Returns
     -------
@@ -82,14 +87,18 @@ def cube_khovanov(diagram: Diagram, *, modulus: int = 0) -> dict[tuple[int, int]
     # generators: (state, bits of v₋ per loop) ; index them per (i, j)
     index: dict[tuple[int, int], dict] = defaultdict(dict)
     info = {}
+    mark = pd[0][0] if reduced else None
+    shift = 1 if reduced else 0
     for state in itertools.product((0, 1), repeat=n):
         loops, where = _loops(pd, state)
         info[state] = (loops, where)
         r = sum(state)
         k = len(loops) + extra
         for minus in range(1 << k):
+            if reduced and not minus >> where[mark] & 1:
+                continue
             m = bin(minus).count("1")
-            j = (k - 2 * m) + r + n_plus - 2 * n_minus
+            j = (k - 2 * m) + r + n_plus - 2 * n_minus + shift
             key = (r - n_minus, j)
             index[key][(state, minus)] = len(index[key])
     # differentials d: C^{i,j} -> C^{i+1,j}, as sparse {(row, col): value}
@@ -114,6 +123,8 @@ def cube_khovanov(diagram: Diagram, *, modulus: int = 0) -> dict[tuple[int, int]
             for idx in range(len(loops), k):  # free loops follow the diagram's loops
                 far_map[idx] = idx - len(loops) + len(loops2)
             for minus in range(1 << k):
+                if reduced and not minus >> where[mark] & 1:
+                    continue
                 base = 0
                 for idx, idx2 in far_map.items():
                     if minus >> idx & 1:
@@ -132,7 +143,7 @@ def cube_khovanov(diagram: Diagram, *, modulus: int = 0) -> dict[tuple[int, int]
                     else:
                         images.extend((base | (1 << p), base | (1 << q)))
                 m = bin(minus).count("1")
-                j = (k - 2 * m) + r + n_plus - 2 * n_minus
+                j = (k - 2 * m) + r + n_plus - 2 * n_minus + shift
                 i = r - n_minus
                 col = index[(i, j)][(state, minus)]
                 for img in images:

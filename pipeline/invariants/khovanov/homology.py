@@ -33,9 +33,10 @@ import flint
 from ...diagrams.diagram import Diagram
 from ...errors import BudgetExceeded, DiagramError
 from ..poly import Laurent
-from .tangle import TangleComplex, reduced_complex
+from .tangle import TangleComplex, close_cut, reduced_complex
 
-__all__ = ["KhovanovData", "khovanov_homology", "khovanov_data", "rasmussen_s", "kh_width",
+__all__ = ["KhovanovData", "khovanov_homology", "reduced_khovanov", "khovanov_data", "rasmussen_s",
+           "kh_width",
            "ranks_to_json", "ranks_from_json", "mirror_ranks", "jones_from_khovanov"]
 
 Ranks = dict[tuple[int, int], int]
@@ -55,12 +56,15 @@ class KhovanovData:
         Rasmussen's s over Q for a knot, None for a link.
     kh_width : int
         Number of diagonals ``j − 2i`` on which Kh over Q is supported.
+    khovanov_reduced : list of [i, j, rank] or None
+        Reduced Khovanov homology over Q for a knot (unknot: [[0, 0, 1]]), None for a link.
     """
 
     khovanov: list
     khovanov_f2: list
     rasmussen_s: Optional[int]
     kh_width: int
+    khovanov_reduced: Optional[list] = None
 
 
 def _check_budget(budget) -> None:
@@ -181,10 +185,10 @@ def _s_from_complex(cx: TangleComplex) -> int:
     return (free[0][1] + free[1][1]) // 2
 
 
-def _require_knot(diagram: Diagram) -> None:
+def _require_knot(diagram: Diagram, what: str = "rasmussen_s") -> None:
     if diagram.n_components != 1:
-        raise DiagramError(f"rasmussen_s: the diagram has {diagram.n_components} components "
-                           f"(s is defined here for knots only)")
+        raise DiagramError(f"{what}: the diagram has {diagram.n_components} components "
+                           f"(defined here for knots only)")
 
 
 def rasmussen_s(diagram: Diagram, *, budget: Optional[int] = None) -> int:
@@ -220,8 +224,40 @@ def kh_width(ranks: Ranks) -> int:
     return len({j - 2 * i for (i, j), r in ranks.items() if r})
 
 
+def reduced_khovanov(diagram: Diagram, *, field: int = 0, budget: Optional[int] = None) -> Ranks:
+    """Reduced Khovanov homology of a knot over Q or F_p.
+
+    The subcomplex in which the marked circle carries ``v₋``, quantum degrees raised by
+    one (Khovanov, "Patterns in knot cohomology I", Experiment. Math. 12 (2003)), so the
+    unknot has rank 1 at (0, 0) and ``Σ (−1)^i q^j rank = V`` at ``t^½ = −q``.  Computed as
+    the simplified complex of the (1,1)-tangle cut open at the marked point: each of its
+    objects is the arc, a free module over ``A = k[x]/(x²)``, and the reduced complex is
+    that complex modulo x, whose differential vanishes after the simplification.  For
+    a knot the result does not depend on the marked point.
+
+    Raises
+    ------
+    DiagramError
+        When the diagram is not a knot.
+    BudgetExceeded
+        ``skipped: khovanov budget N``.
+
+    Examples
+    --------
+    >>> from pipeline.diagrams.notation import parse
+    >>> reduced_khovanov(parse("torus:2,3"))
+    {(0, 2): 1, (2, 6): 1, (3, 8): 1}
+    """
+    _require_knot(diagram, "reduced_khovanov")
+    one = _one(field)
+    _check_budget(budget)
+    if diagram.n_crossings == 0:
+        return {(0, 0): 1}
+    return _ranks(reduced_complex(diagram, one, budget=budget, keep_cut=True), 0)
+
+
 def khovanov_data(diagram: Diagram, *, budget: Optional[int] = None) -> KhovanovData:
-    """Kh over Q and F₂, s (knots) and width, from two runs of the local algorithm.
+    """Kh over Q and F₂, s and reduced Kh over Q (knots), width: two runs of the local algorithm.
 
     Raises
     ------
@@ -229,11 +265,19 @@ def khovanov_data(diagram: Diagram, *, budget: Optional[int] = None) -> Khovanov
         ``skipped: khovanov budget N`` when either run grows past ``budget``.
     """
     _check_budget(budget)
-    cx = reduced_complex(diagram, flint.fmpq(1), budget=budget)
+    knot = diagram.n_components == 1
+    reduced = None
+    cx = reduced_complex(diagram, flint.fmpq(1), budget=budget, keep_cut=True)
+    if diagram.n_crossings:
+        if knot:
+            reduced = ranks_to_json(_ranks(cx, 0))
+        cx = close_cut(cx)
+    elif knot:
+        reduced = [[0, 0, 1]]
     q_ranks = _ranks(cx, diagram.free_loops)
-    s = _s_from_complex(cx) if diagram.n_components == 1 else None
+    s = _s_from_complex(cx) if knot else None
     f2 = _ranks(reduced_complex(diagram, flint.nmod(1, 2), budget=budget), diagram.free_loops)
-    return KhovanovData(ranks_to_json(q_ranks), ranks_to_json(f2), s, kh_width(q_ranks))
+    return KhovanovData(ranks_to_json(q_ranks), ranks_to_json(f2), s, kh_width(q_ranks), reduced)
 
 
 def ranks_to_json(ranks: Ranks) -> list[list[int]]:

@@ -37,7 +37,7 @@ from ...errors import BudgetExceeded
 from ..jones.frontier import crossing_order
 from .cobordism import compose, cycles, expand, reduce_component
 
-__all__ = ["TangleComplex", "reduced_complex"]
+__all__ = ["TangleComplex", "reduced_complex", "close_cut", "clear_caches"]
 
 
 class TangleComplex:
@@ -126,7 +126,7 @@ class TangleComplex:
 
 
 # ------------------------------------------------------------------ gluing a crossing
-@lru_cache(maxsize=200_000)
+@lru_cache(maxsize=50_000)
 def _glue_object(m, s) -> tuple:
     """``m ∪ s`` as (new matching, loops): loops as sorted point tuples, by smallest point."""
     edges = m + s
@@ -161,7 +161,7 @@ def _glue_object(m, s) -> tuple:
     return tuple(sorted(pairs)), tuple(loops)
 
 
-@lru_cache(maxsize=200_000)
+@lru_cache(maxsize=50_000)
 def _glue_topology(t_pieces, x_pieces, src, tgt):
     """Components of a glued cobordism, before capping loops and choosing dots.
 
@@ -209,7 +209,7 @@ def _glue_topology(t_pieces, x_pieces, src, tgt):
                  for a, chi, circ, sl, tl in comps.values())
 
 
-@lru_cache(maxsize=500_000)
+@lru_cache(maxsize=100_000)
 def _glued_terms(topo, dots: frozenset, eps_src, eps_tgt) -> tuple:
     """One term of a glued map, delooped at (eps_src, eps_tgt): ``((dotted circles, int), ...)``.
 
@@ -292,19 +292,30 @@ def _connect(new: TangleComplex, topo, f: dict, tab1: dict, tab2: dict, scale) -
                 new._add_to(a, b, mor)
 
 
-def reduced_complex(diagram: Diagram, one, *, budget: Optional[int] = None) -> TangleComplex:
+def reduced_complex(diagram: Diagram, one, *, budget: Optional[int] = None,
+                    keep_cut: bool = False) -> TangleComplex:
     """The fully simplified complex of the diagram over the field of ``one``.
 
     ``one`` is the unit of the coefficient field (``flint.fmpq(1)`` or
     ``flint.nmod(1, p)``).  Free loops are not included (each multiplies the
     homology by ``q + q⁻¹``).  ``budget`` bounds the number of objects after any
     gluing step.
+
+    The diagram is processed as the (1,1)-tangle obtained by cutting one edge of the
+    last crossing; the tangle's simplified complex is returned when ``keep_cut`` is
+    true (every object is then the arc between the two cut ends, see
+    :func:`close_cut`), otherwise the cut is closed and simplified once more.
     """
     pd = diagram.pd
     signs = diagram.signs
     cx = TangleComplex(one)
-    for c in crossing_order(diagram):
+    order = crossing_order(diagram)
+    for step, c in enumerate(order):
         pts = list(pd[c])
+        if step == len(order) - 1:  # cut one edge at the last crossing
+            single = [s for s in range(4) if pts.count(pts[s]) == 1]
+            s = single[0] if single else max(s for s in range(4) if pts.index(pts[s]) != s)
+            pts[s] = -pts[s] - 7 * 10 ** 9
         for s in range(4):
             if pts.index(pts[s]) != s:  # a kink edge: both ends at this crossing
                 fresh = -pts[s] - 10 ** 9 * s
@@ -312,4 +323,40 @@ def reduced_complex(diagram: Diagram, one, *, budget: Optional[int] = None) -> T
                 pts[s] = fresh
         cx = add_crossing(cx, tuple(pts), signs[c], budget)
         cx.eliminate()
-    return cx
+    if keep_cut or not order:
+        return cx
+    return close_cut(cx)
+
+
+def close_cut(cx: TangleComplex) -> TangleComplex:
+    """Join the two cut ends of a (1,1)-tangle complex, deloop and simplify.
+
+    An entry ``c₀ + c₁·x`` (plain and dotted disk on the arc's one cycle) becomes, on the
+    delooped objects ``(a, +){q+1}`` and ``(a, −){q−1}``, the entries ``+→+ : c₀``,
+    ``+→− : c₁``, ``−→− : c₀ + c₁h`` (``x² = hx``; h implicit), ``−→+ : 0``.
+    """
+    new = TangleComplex(cx.one)
+    new.objs, new.out, new.inc = {}, {}, {}
+    pair = {}
+    for a, (m, i, q) in cx.objs.items():
+        pair[a] = (new.add_object((), i, q + 1), new.add_object((), i, q - 1))
+    empty = frozenset()
+    for a, targets in cx.out.items():
+        m = cx.objs[a][0]
+        dot = frozenset((m[0][0],))
+        for b, f in targets.items():
+            c0, c1 = f.get(empty, 0), f.get(dot, 0)
+            (ap, am), (bp, bm) = pair[a], pair[b]
+            for x, y, c in ((ap, bp, c0), (ap, bm, c1), (am, bm, c0 + c1)):
+                if c:
+                    new._add_to(x, y, {empty: c})
+    new.eliminate()
+    return new
+
+
+def clear_caches() -> None:
+    """Empty the memo tables of local gluing and composition (for cold timings)."""
+    from . import cobordism
+    for fn in (_glue_object, _glue_topology, _glued_terms, cobordism.cycles,
+               cobordism.compose_topology, cobordism._compose_terms):
+        fn.cache_clear()
