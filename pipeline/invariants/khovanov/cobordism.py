@@ -36,7 +36,7 @@ from __future__ import annotations
 import itertools
 from functools import lru_cache
 
-__all__ = ["Matching", "cycles", "reduce_component", "expand", "compose_topology", "compose"]
+__all__ = ["Matching", "cycles", "reduce_component", "add_term", "expand", "compose_topology", "compose"]
 
 #: A crossingless matching: sorted tuple of sorted pairs of boundary points.
 Matching = tuple[tuple[int, int], ...]
@@ -93,6 +93,15 @@ def reduce_component(circles: tuple[int, ...], chi: int, dots: int) -> list[tupl
     return out
 
 
+def add_term(into: dict, key, value) -> None:
+    """``into[key] += value``, keeping only nonzero coefficients."""
+    new = into.get(key, 0) + value
+    if new:
+        into[key] = new
+    else:
+        into.pop(key, None)
+
+
 def expand(parts: list[list[tuple[frozenset, int]]], scale, into: dict) -> None:
     """Add ``scale · Π parts`` (a product of per-component normal forms) into ``into``."""
     for combo in itertools.product(*parts):
@@ -103,11 +112,7 @@ def expand(parts: list[list[tuple[frozenset, int]]], scale, into: dict) -> None:
             if ds:
                 dots = dots | ds
         if coeff:
-            new = into.get(dots, 0) + coeff
-            if new:
-                into[dots] = new
-            else:
-                into.pop(dots, None)
+            add_term(into, dots, coeff)
 
 
 @lru_cache(maxsize=50_000)
@@ -168,9 +173,5 @@ def compose(m1: Matching, m2: Matching, m3: Matching, f: dict, g: dict, scale) -
         for d2, c2 in g.items():
             sc = scale * c1 * c2
             for ds, v in _compose_terms(m1, m2, m3, d1, d2):
-                new = out.get(ds, 0) + sc * v
-                if new:
-                    out[ds] = new
-                else:
-                    out.pop(ds, None)
+                add_term(out, ds, sc * v)
     return out

@@ -141,41 +141,18 @@ def _free_degrees(cx: TangleComplex) -> list[tuple[int, int]]:
     polynomial); each cancelled pair is an h-torsion summand ``k[h]/(h^k)``, the
     generators left over span the free part.
     """
-    objs = {a: (i, q) for a, (_, i, q) in cx.objs.items()}
-    out = {a: {b: f[frozenset()] for b, f in t.items()} for a, t in cx.out.items()}
-    inc = {b: set(s) for b, s in cx.inc.items()}
-    while True:
-        best = None
-        for a, t in out.items():
-            for b in t:
-                k = objs[b][1] - objs[a][1]
-                if best is None or k < best[0]:
-                    best = (k, a, b)
-        if best is None:
-            break
-        _, a, b = best
-        c = out[a][b]
-        for x in inc[b]:
-            if x == a:
-                continue
-            lam = out[x][b] / c
-            for y, v in out[a].items():
-                if y == b:
-                    continue
-                new = out[x].get(y, 0) - lam * v
-                if new:
-                    out[x][y] = new
-                    inc[y].add(x)
-                elif y in out[x]:
-                    del out[x][y]
-                    inc[y].discard(x)
-        for k in (a, b):
-            for y in out[k]:
-                inc[y].discard(k)
-            for x in inc[k]:
-                out[x].pop(k, None)
-            del out[k], inc[k], objs[k]
-    return sorted(objs.values())
+    work = TangleComplex(cx.one)
+    work.objs = dict(cx.objs)
+    work.out = {a: {b: dict(f) for b, f in t.items()} for a, t in cx.out.items()}
+    work.inc = {b: set(x) for b, x in cx.inc.items()}
+    while True:  # the least power of h never decreases: cancel level by level
+        level = [(work.objs[b][2] - work.objs[a][2], a, b) for a, t in work.out.items() for b in t]
+        if not level:
+            return sorted((i, q) for _, i, q in work.objs.values())
+        least = min(level)[0]
+        for k, a, b in level:
+            if k == least and a in work.out and b in work.out[a]:
+                work._cancel(a, b)  # ε − γφ⁻¹δ: polynomial since φ has the least power of h
 
 
 def _s_from_complex(cx: TangleComplex) -> int:

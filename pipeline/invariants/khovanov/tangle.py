@@ -35,7 +35,7 @@ from typing import Optional
 from ...diagrams.diagram import Diagram
 from ...errors import BudgetExceeded
 from ..jones.frontier import crossing_order
-from .cobordism import compose, cycles, expand, reduce_component
+from .cobordism import add_term, compose, cycles, expand, reduce_component
 
 __all__ = ["TangleComplex", "reduced_complex", "close_cut", "clear_caches"]
 
@@ -115,11 +115,7 @@ class TangleComplex:
             self.inc[y].add(x)
             return
         for ds, c in extra.items():
-            new = cur.get(ds, 0) + c
-            if new:
-                cur[ds] = new
-            else:
-                cur.pop(ds, None)
+            add_term(cur, ds, c)
         if not cur:
             del self.out[x][y]
             self.inc[y].discard(x)
@@ -283,11 +279,7 @@ def _connect(new: TangleComplex, topo, f: dict, tab1: dict, tab2: dict, scale) -
             for dots, c in f.items():
                 sc = scale * c
                 for ds, v in _glued_terms(topo, dots, e1, e2):
-                    new_c = mor.get(ds, 0) + sc * v
-                    if new_c:
-                        mor[ds] = new_c
-                    else:
-                        mor.pop(ds, None)
+                    add_term(mor, ds, sc * v)
             if mor:
                 new._add_to(a, b, mor)
 
