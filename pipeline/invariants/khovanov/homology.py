@@ -129,7 +129,7 @@ def khovanov_homology(diagram: Diagram, *, field: int = 0, budget: Optional[int]
     """
     one = _one(field)
     _check_budget(budget)
-    return _ranks(reduced_complex(diagram, one, budget=budget), diagram.free_loops)
+    return _ranks(reduced_complex(diagram, one, budget=budget, h0=True), diagram.free_loops)
 
 
 def _free_degrees(cx: TangleComplex) -> list[tuple[int, int]]:
@@ -230,7 +230,7 @@ def reduced_khovanov(diagram: Diagram, *, field: int = 0, budget: Optional[int] 
     _check_budget(budget)
     if diagram.n_crossings == 0:
         return {(0, 0): 1}
-    return _ranks(reduced_complex(diagram, one, budget=budget, keep_cut=True), 0)
+    return _ranks(reduced_complex(diagram, one, budget=budget, keep_cut=True, h0=True), 0)
 
 
 def khovanov_data(diagram: Diagram, *, budget: Optional[int] = None) -> KhovanovData:
@@ -253,7 +253,7 @@ def khovanov_data(diagram: Diagram, *, budget: Optional[int] = None) -> Khovanov
         reduced = [[0, 0, 1]]
     q_ranks = _ranks(cx, diagram.free_loops)
     s = _s_from_complex(cx) if knot else None
-    f2 = _ranks(reduced_complex(diagram, flint.nmod(1, 2), budget=budget), diagram.free_loops)
+    f2 = _ranks(reduced_complex(diagram, flint.nmod(1, 2), budget=budget, h0=True), diagram.free_loops)
     return KhovanovData(ranks_to_json(q_ranks), ranks_to_json(f2), s, kh_width(q_ranks), reduced)
 
 

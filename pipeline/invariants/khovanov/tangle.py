@@ -43,8 +43,9 @@ __all__ = ["TangleComplex", "reduced_complex", "close_cut", "clear_caches"]
 class TangleComplex:
     """A formal complex over dotted cobordisms (mutable, private to this computation)."""
 
-    def __init__(self, one) -> None:
+    def __init__(self, one, h0: bool = False) -> None:
         self.one = one
+        self.h0 = h0  # drop every term with a positive power of h (Khovanov's theory)
         self.objs: dict[int, tuple] = {0: ((), 0, 0)}   # id -> (matching, i, q)
         self.out: dict[int, dict[int, dict]] = {0: {}}  # id -> {target id: morphism}
         self.inc: dict[int, set[int]] = {0: set()}      # id -> set of source ids
@@ -109,6 +110,12 @@ class TangleComplex:
         return created
 
     def _add_to(self, x: int, y: int, extra: dict) -> None:
+        if self.h0:
+            (mx, _, qx), (my, _, qy) = self.objs[x], self.objs[y]
+            top = len(cycles(mx, my)) - len(mx) + qy - qx  # deg C + q_y − q_x = 2·(power of h) + 2|D|
+            extra = {ds: c for ds, c in extra.items() if 2 * len(ds) == top}
+            if not extra:
+                return
         cur = self.out[x].get(y)
         if cur is None:
             self.out[x][y] = extra
@@ -242,7 +249,7 @@ def add_crossing(cx: TangleComplex, pts: tuple[int, int, int, int], sign: int,
               tuple(sorted(((min(p0, p3), max(p0, p3)), (min(p1, p2), max(p1, p2))))))
     heights = (0, 1) if sign > 0 else (-1, 0)
     qshift = (1, 2) if sign > 0 else (-2, -1)
-    new = TangleComplex(cx.one)
+    new = TangleComplex(cx.one, cx.h0)
     new.objs, new.out, new.inc = {}, {}, {}
     ids: dict[tuple[int, int], tuple] = {}  # (old id, smoothing) -> (glued object, {eps: new id})
     for o, (m, i, q) in cx.objs.items():
@@ -285,7 +292,7 @@ def _connect(new: TangleComplex, topo, f: dict, tab1: dict, tab2: dict, scale) -
 
 
 def reduced_complex(diagram: Diagram, one, *, budget: Optional[int] = None,
-                    keep_cut: bool = False) -> TangleComplex:
+                    keep_cut: bool = False, h0: bool = False) -> TangleComplex:
     """The fully simplified complex of the diagram over the field of ``one``.
 
     ``one`` is the unit of the coefficient field (``flint.fmpq(1)`` or
@@ -297,10 +304,12 @@ def reduced_complex(diagram: Diagram, one, *, budget: Optional[int] = None,
     last crossing; the tangle's simplified complex is returned when ``keep_cut`` is
     true (every object is then the arc between the two cut ends, see
     :func:`close_cut`), otherwise the cut is closed and simplified once more.
+    With ``h0`` every term carrying a positive power of h is dropped as it appears:
+    Khovanov's theory itself, sparser, enough for the ranks but not for s.
     """
     pd = diagram.pd
     signs = diagram.signs
-    cx = TangleComplex(one)
+    cx = TangleComplex(one, h0)
     order = crossing_order(diagram)
     for step, c in enumerate(order):
         pts = list(pd[c])
@@ -327,7 +336,7 @@ def close_cut(cx: TangleComplex) -> TangleComplex:
     delooped objects ``(a, +){q+1}`` and ``(a, −){q−1}``, the entries ``+→+ : c₀``,
     ``+→− : c₁``, ``−→− : c₀ + c₁h`` (``x² = hx``; h implicit), ``−→+ : 0``.
     """
-    new = TangleComplex(cx.one)
+    new = TangleComplex(cx.one, cx.h0)
     new.objs, new.out, new.inc = {}, {}, {}
     pair = {}
     for a, (m, i, q) in cx.objs.items():
