@@ -134,7 +134,9 @@ def main() -> None:
                      f"{w} | {s} | {t2:.3f} | {tq:.3f} |")
     lines += ["", "The time grows with the size of the homology of the partial tangles, not with the "
               "crossing number alone: the alternating 3-braid (σ1σ2⁻¹)^10 has Kh of rank det + 1 = 15126 "
-              "over Q (30250 over F₂) and is the slow row.", "",
+              "over Q (30250 over F₂) and is the slow row; its `khovanov_data` time is dominated by the run over Q[h] "
+              "that s needs (rational coefficients and the h-terms keep those complexes far denser than "
+              "over F₂).", "",
               f"## T(3,q) up to 40 crossings (fitted exponent, n ≥ 14: F₂ k = {k2:.2f}, Q k = {kq:.2f})", "",
               "| q | crossings | rank Kh(Q) | F₂ (ms) | Q (ms) |", "|---|---|---|---|---|"]
     for q, n, r, t2, tq in tq_rows:
