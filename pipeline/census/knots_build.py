@@ -21,6 +21,8 @@ import json
 from pathlib import Path
 from typing import Callable, Iterator
 
+from ..numbers import UnionFind
+
 __all__ = ["knots_rows", "COLUMNS"]
 
 #: diagrams columns the classifier reads (the rest stay on disk).
@@ -28,15 +30,6 @@ COLUMNS = ["row_id", "diagram_id", "family", "params", "notation", "crossings", 
            "determinant", "determinant_text", "invariant_factors", "alexander", "jones",
            "signature", "chirality", "chirality_reason", "knot_key", "mirror_key", "knot_proof",
            "status", "extras"]
-
-
-def _find(parent: dict, x):
-    root = x
-    while parent[root] != root:
-        root = parent[root]
-    while parent[x] != root:
-        parent[x], x = root, parent[x]
-    return root
 
 
 def _slim(extras: str | None) -> str | None:
@@ -48,7 +41,7 @@ def _slim(extras: str | None) -> str | None:
 
 
 def _batches(dataset, batch_rows: int) -> Iterator[list]:
-    parent: dict = {}
+    sets = UnionFind()
     counts: dict = {}
     for batch in dataset.to_batches(columns=["knot_key", "extras", "diagram_id"]):
         keys = batch.column("knot_key").to_pylist()
@@ -56,20 +49,17 @@ def _batches(dataset, batch_rows: int) -> Iterator[list]:
         dids = batch.column("diagram_id").to_pylist()
         for key, ex, did in zip(keys, extras, dids):
             k = ("k", key)
-            parent.setdefault(k, k)
+            sets.add(k)
             counts[k] = counts.get(k, 0) + 1
             fp = (json.loads(ex).get("knot") or {}).get("fingerprint") if ex else None
             # a key joins the fingerprints of its rows (fingerprint notes) and their
             # diagram ids (the same-diagram note): both are read across keys
             for node in (("f", fp) if fp is not None else None, ("d", did) if did else None):
                 if node is not None:
-                    parent.setdefault(node, node)
-                    a, b = _find(parent, k), _find(parent, node)
-                    if a != b:
-                        parent[a] = b
+                    sets.union(k, node)
     clusters: dict = {}
     for node, n in counts.items():
-        root = _find(parent, node)
+        root = sets.find(node)
         size, keys = clusters.get(root, (0, []))
         keys.append(node[1])
         clusters[root] = (size + n, keys)

@@ -40,10 +40,7 @@ from .safe_expr import Expression, Null, compile_expression
 __all__ = ["ClaimResult", "RowEnv", "census_rows", "check_claim", "format_result", "language_help",
            "add_arguments", "main"]
 
-try:
-    from pandas import NA as _NA
-except ImportError:  # pragma: no cover
-    _NA = None
+from pandas import NA as _NA
 
 #: Short names for columns.
 ALIASES = {"factors": "invariant_factors"}

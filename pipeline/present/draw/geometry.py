@@ -134,16 +134,10 @@ def _tutte(n: int, edges: list[tuple[int, int]], weights: list[float],
         rows.append(k)
         cols.append(k)
         vals.append(diag[v])
-    try:
-        from scipy.sparse import csr_matrix
-        from scipy.sparse.linalg import spsolve
-        A = csr_matrix((vals, (rows, cols)), shape=(len(free), len(free)))
-        sol = spsolve(A.tocsc(), rhs)
-    except ImportError:  # pragma: no cover - scipy is installed with the project's stack
-        A = np.zeros((len(free), len(free)))
-        for r, c, v in zip(rows, cols, vals):
-            A[r, c] += v
-        sol = np.linalg.solve(A, rhs)
+    A = np.zeros((len(free), len(free)))
+    for r, c, v in zip(rows, cols, vals):
+        A[r, c] += v
+    sol = np.linalg.solve(A, rhs)
     pos = np.zeros((n, 2))
     pos[free] = np.asarray(sol).reshape(len(free), 2)
     for v, xy in pinned.items():
