@@ -45,13 +45,16 @@ from typing import Optional, Sequence
 import sympy
 from flint import fmpz_mat, fmpz_poly
 
+from ..diagrams.diagram import Diagram
+from ..diagrams.notation import Notation
 from ..errors import KnotLedgerError
-from .seifert import seifert_det_poly
+from .seifert import seifert_det_poly, seifert_matrix_of_notation
+from .seifert_surface import seifert_matrix
 from .signature import symmetric_inertia
 
 _MINORS = 24
 
-__all__ = ["JumpPoint", "SignatureFunction", "tristram_levine", "tristram_levine_at"]
+__all__ = ["JumpPoint", "SignatureFunction", "tristram_levine", "tristram_levine_at", "signature_function"]
 
 
 @dataclass(frozen=True)
@@ -331,3 +334,34 @@ def tristram_levine(V: Sequence[Sequence[int]]) -> SignatureFunction:
             s = _rational_s_between(u_lo, u_lo + 1 + u_lo)  # any point past the last jump
         values.append(_hermitian_signature(S, A, s))
     return SignatureFunction(tuple(jumps), tuple(values), at_minus_one)
+
+
+def signature_function(diagram: Diagram, *, notation: "str | Notation | None" = None) -> SignatureFunction:
+    """The Tristram–Levine signature function of a diagram's link (any census row).
+
+    Parameters
+    ----------
+    diagram : Diagram
+        The row's diagram (its orientation is used).
+    notation : str or Notation, optional, keyword-only
+        The row's notation.  For ``braid:``/``torus:`` rows whose closed-braid surface is
+        connected the Seifert matrix of the braid closure is used
+        (:func:`pipeline.invariants.seifert.braid_seifert_matrix`); otherwise Seifert's
+        algorithm on the diagram (:func:`pipeline.invariants.seifert_surface.seifert_matrix`).
+
+    Returns
+    -------
+    SignatureFunction
+        ``at_minus_one`` is the signature σ of :mod:`pipeline.invariants.signature`.
+
+    Examples
+    --------
+    >>> from pipeline.diagrams.notation import parse
+    >>> f = signature_function(parse("pretzel:-2,3,3"))   # T(3,4)
+    >>> f.at_minus_one, f.values
+    (-6, (0, -2, -4, -6))
+    """
+    V = seifert_matrix_of_notation(notation) if notation is not None else None
+    if V is None:
+        V = seifert_matrix(diagram)
+    return tristram_levine(V)
