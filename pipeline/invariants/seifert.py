@@ -24,6 +24,9 @@ rules (which of V_xy, V_yx carries the entry) were fixed among the candidates al
 the symmetrised form by testing: only these (and transposes of them) give the Alexander
 polynomial of :mod:`pipeline.invariants.alexander` on random braids, links included;
 V − Vᵀ is then the intersection form of the surface (unimodular for a knot).
+
+Any other diagram: :func:`seifert_matrix` (module :mod:`pipeline.invariants.seifert_surface`),
+Seifert's algorithm on the diagram itself, in the same sign conventions.
 """
 
 from __future__ import annotations
@@ -36,8 +39,9 @@ from ..diagrams.families import torus
 from ..diagrams.notation import Notation, parse_notation
 from ..errors import KnotLedgerError, NotationError
 from .poly import Laurent
+from .seifert_surface import seifert_matrix  # any diagram: Seifert's algorithm (re-export)
 
-__all__ = ["braid_seifert_matrix", "seifert_alexander", "SeifertSurfaceError", "interpolate_integer_poly",
+__all__ = ["braid_seifert_matrix", "seifert_matrix", "seifert_alexander", "SeifertSurfaceError", "interpolate_integer_poly",
            "braid_of_notation", "seifert_matrix_of_notation", "seifert_det_poly"]
 
 
