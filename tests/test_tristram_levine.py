@@ -12,6 +12,8 @@ Checked against:
   gives the Conway-normalised Δ, and every jump point is a root of Δ on the circle;
 * a slow route: the signature of the Hermitian matrix (1 − ω)V + (1 − ω̄)Vᵀ at rational
   points of the circle by Descartes' rule on its sympy characteristic polynomial (real-rooted);
+* Seifert's algorithm on any diagram (signature_function): σ_(−1) = σ on families and random
+  diagrams, the same function as the braid route on braid/torus rows;
 * relations: mirror negates σ_ω; σ near ω = 1 is 0 for knots; jumps of a knot are at most 2·multiplicity.
 """
 
@@ -25,12 +27,14 @@ import sympy
 from hypothesis import HealthCheck, example, given, settings
 from hypothesis import strategies as st
 
+from _moves import complicate
 from pipeline.diagrams.families import braid, torus
+from pipeline.diagrams.notation import parse
 from pipeline.invariants.alexander import alexander_polynomial
 from pipeline.invariants.seifert import (SeifertSurfaceError, braid_seifert_matrix, seifert_alexander,
                                          seifert_matrix_of_notation)
 from pipeline.invariants.signature import signature
-from pipeline.invariants.tristram_levine import tristram_levine, tristram_levine_at
+from pipeline.invariants.tristram_levine import signature_function, tristram_levine, tristram_levine_at
 
 
 def litherland(p: int, q: int, xi: Fraction) -> int:
@@ -164,3 +168,47 @@ def test_signature_function_at_minus_one_and_jumps(word):
 def test_exact_hermitian_signature_matches_descartes(word, s):
     V = braid_seifert_matrix(word)
     assert tristram_levine_at(V, s) == slow_hermitian_signature(V, s)
+
+
+# ------------------------------------------------ signature_function on any row (Seifert's algorithm)
+BRIESKORN = {(2, 3): -2, (3, 4): -6, (3, 5): -8, (3, 7): -8}   # /shared REFERENCES.md (Brieskorn 1966)
+
+
+@pytest.mark.parametrize("p,q", sorted(BRIESKORN), ids=[f"T({p},{q})" for p, q in sorted(BRIESKORN)])
+def test_general_route_on_torus_knots_matches_brieskorn_and_litherland(p, q):
+    d = torus.diagram(p, q)
+    f = signature_function(d)                         # Seifert's algorithm on the diagram
+    g = signature_function(d, notation=f"torus:{p},{q}")   # the braid route
+    assert f.at_minus_one == BRIESKORN[(p, q)] == litherland(p, q, Fraction(1, 2)) == signature(d)
+    assert f == g
+    angles = [Fraction(0)] + [j.angle for j in f.jumps] + [Fraction(1, 2)]
+    assert [litherland(p, q, (a + b) / 2) for a, b in zip(angles, angles[1:])] == list(f.values)
+
+
+ROWS = ["pretzel:3,3,3", "pretzel:-2,3,7", "pretzel:2,3,-4", "pretzel:2,2,2", "pretzel:-3,5,5",
+        "rational:7/3", "rational:13/5", "rational:8/3", "conway:2 2", "conway:3 1 2",
+        "montesinos:1/3,2/5,-1/2", "torus:2,4", "braid:1,1,3,3", "pd:[[1,5,2,4],[3,1,4,6],[5,3,6,2]] loops=1"]
+
+
+@pytest.mark.parametrize("text", ROWS)
+def test_signature_function_at_minus_one_is_the_signature_on_families(text):
+    d = parse(text)
+    f = signature_function(d, notation=text)
+    assert f.at_minus_one == signature(d)
+    assert signature_function(d.mirror()).at_minus_one == -f.at_minus_one
+    if d.n_components == 1:
+        assert f.values[0] == 0
+
+
+@SETTINGS
+@given(st.integers(2, 4).flatmap(lambda n: st.tuples(st.just(n), st.lists(
+    st.integers(1, n - 1).flatmap(lambda g: st.sampled_from([g, -g])), min_size=1, max_size=7))),
+    st.integers(0, 4), st.integers(0, 10 ** 6))
+def test_signature_function_on_random_small_diagrams(nw, moves, seed):
+    n, word = nw
+    d = complicate(braid.diagram(word, strands=n), moves, seed)
+    f = signature_function(d)
+    assert f.at_minus_one == signature(d)
+    text = "braid:" + ",".join(map(str, word))
+    if {abs(g) for g in word} == set(range(1, n)) and moves == 0:
+        assert signature_function(d, notation=text) == f   # braid route, same function

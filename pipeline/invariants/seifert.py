@@ -24,21 +24,24 @@ rules (which of V_xy, V_yx carries the entry) were fixed among the candidates al
 the symmetrised form by testing: only these (and transposes of them) give the Alexander
 polynomial of :mod:`pipeline.invariants.alexander` on random braids, links included;
 V − Vᵀ is then the intersection form of the surface (unimodular for a knot).
+
+Any other diagram: :func:`seifert_matrix` (module :mod:`pipeline.invariants.seifert_surface`),
+Seifert's algorithm on the diagram itself, in the same sign conventions.
 """
 
 from __future__ import annotations
 
-import re
 from typing import Optional, Sequence
 
 from flint import fmpq, fmpq_poly, fmpz_mat, fmpz_poly
 
 from ..diagrams.families import torus
-from ..diagrams.notation import parse, split_notation
+from ..diagrams.notation import Notation, parse_notation
 from ..errors import KnotLedgerError, NotationError
 from .poly import Laurent
+from .seifert_surface import seifert_matrix  # any diagram: Seifert's algorithm (re-export)
 
-__all__ = ["braid_seifert_matrix", "seifert_alexander", "SeifertSurfaceError", "interpolate_integer_poly",
+__all__ = ["braid_seifert_matrix", "seifert_matrix", "seifert_alexander", "SeifertSurfaceError", "interpolate_integer_poly",
            "braid_of_notation", "seifert_matrix_of_notation", "seifert_det_poly"]
 
 
@@ -95,23 +98,23 @@ def braid_seifert_matrix(word: Sequence[int], *, strands: Optional[int] = None) 
     return V
 
 
-def braid_of_notation(text: str) -> Optional[tuple[list[int], int]]:
+def braid_of_notation(text: "str | Notation") -> Optional[tuple[list[int], int]]:
     """(word, strands) of a ``braid:`` or ``torus:`` row (torus on min(|p|, |q|) strands,
-    T(p,q) = T(q,p), Rolfsen ch. 3); None for any other kind.  Validates the notation."""
-    kind, args = split_notation(text)
-    if kind not in ("braid", "torus"):
+    T(p,q) = T(q,p), Rolfsen ch. 3); None for any other kind.  Validates the notation
+    (a string is read by :func:`~pipeline.diagrams.notation.parse_notation`)."""
+    note = parse_notation(text) if isinstance(text, str) else text
+    if note.kind == "braid":
+        word = [int(g) for g in note.args]
+        return word, max(abs(g) for g in word) + 1
+    if note.kind != "torus":
         return None
-    parse(text)  # the notation's own one-line errors
-    vals = [int(x) for x in re.split(r"[,\s]+", args.strip()) if x]
-    if kind == "braid":
-        return vals, max(abs(g) for g in vals) + 1
-    p, q = vals[0], vals[1]
+    p, q = (int(v) for v in note.args)
     if abs(q) < abs(p):
         p, q = q, p
     return torus.word(p, q), abs(p)
 
 
-def seifert_matrix_of_notation(text: str) -> Optional[list[list[int]]]:
+def seifert_matrix_of_notation(text: "str | Notation") -> Optional[list[list[int]]]:
     """Seifert matrix of a ``braid:``/``torus:`` row whose closed-braid surface is connected,
     else None (other kinds, or a generator missing: then the link is split or the braid
     can be shortened)."""

@@ -37,6 +37,7 @@ points where σ changes; the values between them are exact as always.
 from __future__ import annotations
 
 from dataclasses import dataclass
+from functools import lru_cache
 from fractions import Fraction
 from itertools import combinations
 from math import gcd, isqrt
@@ -45,13 +46,16 @@ from typing import Optional, Sequence
 import sympy
 from flint import fmpz_mat, fmpz_poly
 
+from ..diagrams.diagram import Diagram
+from ..diagrams.notation import Notation
 from ..errors import KnotLedgerError
-from .seifert import seifert_det_poly
+from .seifert import seifert_det_poly, seifert_matrix_of_notation
+from .seifert_surface import seifert_matrix
 from .signature import symmetric_inertia
 
 _MINORS = 24
 
-__all__ = ["JumpPoint", "SignatureFunction", "tristram_levine", "tristram_levine_at"]
+__all__ = ["JumpPoint", "SignatureFunction", "tristram_levine", "tristram_levine_at", "signature_function"]
 
 
 @dataclass(frozen=True)
@@ -235,13 +239,37 @@ def _x_polynomial(D: fmpz_poly) -> fmpz_poly:
 def _angle(factor: fmpz_poly, rank_from_top: int) -> Optional[Fraction]:
     """θ/2π when the factor is the minimal polynomial of 2cos(2π/n); the roots 2cos(2πk/n),
     gcd(k, n) = 1, decrease with k, so the j-th largest root has the j-th smallest k."""
+    n = _cos_index(tuple(int(c) for c in factor.coeffs()))
+    if n is None:
+        return None
+    ks = [k for k in range(1, n // 2 + 1) if gcd(k, n) == 1 and 2 * k != n]
+    return Fraction(ks[rank_from_top], n)
+
+
+@lru_cache(maxsize=4096)
+def _cos_index(coeffs: tuple[int, ...]) -> Optional[int]:
+    """The n ≥ 3 whose 2cos(2π/n) has this minimal polynomial, else None.  That polynomial
+    has degree φ(n)/2 and φ(n) ≥ √(n/2), so only n ≤ 8d² with φ(n) = 2d are tried."""
+    factor = fmpz_poly(list(coeffs))
     d = factor.degree()
-    for n in range(3, 8 * d * d + 12):
-        mp = fmpz_poly.cos_minpoly(n)
-        if mp.degree() == d and (mp == factor or mp == -factor):
-            ks = [k for k in range(1, n // 2 + 1) if gcd(k, n) == 1 and 2 * k != n]
-            return Fraction(ks[rank_from_top], n)
+    limit = 8 * d * d + 12
+    for n in range(3, limit + 1):
+        if _totients(limit)[n] == 2 * d:
+            mp = fmpz_poly.cos_minpoly(n)
+            if mp == factor or mp == -factor:
+                return n
     return None
+
+
+@lru_cache(maxsize=64)
+def _totients(limit: int) -> list[int]:
+    """Euler's φ(0..limit) by a sieve."""
+    phi = list(range(limit + 1))
+    for p in range(2, limit + 1):
+        if phi[p] == p:
+            for k in range(p, limit + 1, p):
+                phi[k] -= phi[k] // p
+    return phi
 
 
 def _rational_s_between(u_lo: Fraction, u_hi: Fraction) -> Fraction:
@@ -331,3 +359,34 @@ def tristram_levine(V: Sequence[Sequence[int]]) -> SignatureFunction:
             s = _rational_s_between(u_lo, u_lo + 1 + u_lo)  # any point past the last jump
         values.append(_hermitian_signature(S, A, s))
     return SignatureFunction(tuple(jumps), tuple(values), at_minus_one)
+
+
+def signature_function(diagram: Diagram, *, notation: "str | Notation | None" = None) -> SignatureFunction:
+    """The Tristram–Levine signature function of a diagram's link (any census row).
+
+    Parameters
+    ----------
+    diagram : Diagram
+        The row's diagram (its orientation is used).
+    notation : str or Notation, optional, keyword-only
+        The row's notation.  For ``braid:``/``torus:`` rows whose closed-braid surface is
+        connected the Seifert matrix of the braid closure is used
+        (:func:`pipeline.invariants.seifert.braid_seifert_matrix`); otherwise Seifert's
+        algorithm on the diagram (:func:`pipeline.invariants.seifert_surface.seifert_matrix`).
+
+    Returns
+    -------
+    SignatureFunction
+        ``at_minus_one`` is the signature σ of :mod:`pipeline.invariants.signature`.
+
+    Examples
+    --------
+    >>> from pipeline.diagrams.notation import parse
+    >>> f = signature_function(parse("pretzel:-2,3,3"))   # T(3,4)
+    >>> f.at_minus_one, f.values
+    (-6, (0, -2, -4, -6))
+    """
+    V = seifert_matrix_of_notation(notation) if notation is not None else None
+    if V is None:
+        V = seifert_matrix(diagram)
+    return tristram_levine(V)
