@@ -60,12 +60,17 @@ from ..diagrams.simplify import DEFAULT_BUDGET as SIMPLIFY_BUDGET
 from ..errors import BudgetExceeded
 from .normal_forms import CN_ALT, NormalForm, connected_sum_nf, euclid_terms, split_nf, two_bridge_nf
 
-__all__ = ["FLYPE_REASON", "SIMPLIFY_BUDGET", "FLYPE_BUDGET", "Structure", "flype_key",
+__all__ = ["FLYPE_REASON", "SIMPLIFY_BUDGET", "FLYPE_BUDGET", "FAMILY_CHECK_CROSSINGS", "Structure", "flype_key",
            "alternating_nf", "two_bridge_of", "structure"]
 
 FLYPE_REASON = ("flyping theorem: reduced prime alternating diagrams of one link are related by flypes "
                 "(W. Menasco, M. Thistlethwaite, \"The classification of alternating links\", "
                 "Annals of Math. 138, 1993)")
+#: Family rows keyed by their normal form (rule (b)) get their flype code, for the
+#: knots-table check only, up to this many crossings (flype orbits of long twist
+#: regions, e.g. T(2, n), are slow to search; the key does not need the code).
+FAMILY_CHECK_CROSSINGS = 12
+
 SCHUBERT_REASON = ("two-bridge b({a}, {b}) recognised by its flype class (flyping theorem, "
                    "Menasco-Thistlethwaite 1993) and keyed by Schubert's classification (Math. Z. 65, 1956)")
 
@@ -199,7 +204,8 @@ def structure(diagram: Diagram, *, simplify_budget: int = SIMPLIFY_BUDGET,
     candidates of a knot; a knot invariant, so valid for the simplified summand too).
     ``key=False`` (a family row keyed by its normal form): rule (a) and the crossingless
     case still key, but a prime alternating diagram only gets its flype codes (for the
-    knots-table check), no key.  Never raises for a budget: the notes say what ran out.
+    knots-table check, up to :data:`FAMILY_CHECK_CROSSINGS` crossings), no key.  Never
+    raises for a budget: the notes say what ran out.
     """
     from ..diagrams.primality import decompose
     st = Structure()
@@ -224,7 +230,8 @@ def _rule_c(st: Structure, d: Diagram, budget: int, jones, key: bool) -> None:
     """Rule (c) on the one prime summand ``d``; ``key=False``: only its flype codes."""
     try:
         if not key:
-            st.flype_code, st.mirror_code = flype_codes(d, budget=budget)
+            if d.n_crossings <= FAMILY_CHECK_CROSSINGS:
+                st.flype_code, st.mirror_code = flype_codes(d, budget=budget)
             return
         nf, code, mcode, reason = alternating_nf(d, budget=budget, jones=jones)
     except BudgetExceeded as err:
