@@ -265,3 +265,20 @@ def test_knots_table_flype_class_check():
              "flype_code": alt[0]["flype_code"]}
     with pytest.raises(KeyConflictError, match="different flype codes"):
         build_knots_table([twin[0], other])
+
+
+def test_links_option_of_the_family():
+    from pipeline.census.spec import iter_items
+    spec = parse_spec('[[family]]\nkind = "alternating"\ncrossings = [2, 6]\nlinks = true\n')
+    items = list(iter_items(spec))
+    links = [it.notation for it in items if it.notation.startswith("altlink:")]
+    # prime alternating links with 2, 4, 5, 6 crossings: 1, 1, 1, 5 (Hopf; T(2,4); the
+    # Whitehead link; L6a1–L6a5) *(memory: Thistlethwaite's link table)*
+    assert [sum(1 for t in links if t.split(":")[1] == str(n)) for n in (2, 3, 4, 5, 6)] == [1, 0, 1, 1, 5]
+    assert [json.loads(it.params) for it in items[:2]] == [{"crossings": 2, "index": 1},
+                                                           {"crossings": 3, "index": 1}]
+    keys = [_row(t)["knot_key"] for t in links]
+    assert len(set(keys)) == len(keys)          # distinct types get distinct keys
+    assert _row("altlink:6:1")["proof"] == "normal form"
+    only = parse_spec('[[family]]\nkind = "alternating"\ncrossings = [2, 6]\nlinks = true\nknots_only = true\n')
+    assert all(it.notation.startswith("alt:") for it in iter_items(only))
