@@ -244,14 +244,22 @@ def _row(i, notation, d=None, **extra):
     return r
 
 
+def _no_diagram(row):
+    """The row without its Diagram: only the fingerprint can key it (with the diagram,
+    a reduced alternating PD gets the flype / Schubert key, test_identify_alternating.py)."""
+    return {k: v for k, v in row.items() if k != "diagram"}
+
+
 def test_fingerprints_separate_mirrors_of_chiral_knots_only():
     t = parse("torus:2,3")
-    a, b = _row(0, t.to_notation(), t), _row(1, t.mirror().to_notation(), t.mirror())
+    a, b = (_no_diagram(_row(0, t.to_notation(), t)),
+            _no_diagram(_row(1, t.mirror().to_notation(), t.mirror())))
     ka, kb = knot_key(a), knot_key(b)
     assert ka["proof"] == "fingerprint only" and ka["knot_key"] != kb["knot_key"]
     assert ka["mirror_key"] == kb["knot_key"] and ka["amphichiral"] is False
     f = parse("conway:2 2")
-    c, e = _row(2, f.to_notation(), f), _row(3, f.mirror().to_notation(), f.mirror())
+    c, e = (_no_diagram(_row(2, f.to_notation(), f)),
+            _no_diagram(_row(3, f.mirror().to_notation(), f.mirror())))
     assert knot_key(c)["knot_key"] == knot_key(e)["knot_key"]
     assert knot_key(c)["amphichiral"] is None     # fingerprints never prove amphichirality
 
@@ -290,13 +298,19 @@ def test_knots_table_columns_and_crossing_numbers():
     assert table[key("rational:7/2")]["n_diagrams"] == 2   # 4 ≡ 2⁻¹ (mod 7)
 
 
-def test_reduced_alternating_crossing_number_for_fingerprint_rows():
+def test_reduced_alternating_crossing_number_for_pd_rows():
     d = parse("conway:2 1 1 2")                  # 6_3, reduced alternating, 6 crossings
     r = _row(0, d.to_notation(), d)
     k = knot_key(r)
-    assert k["proof"] == "fingerprint only" and k["crossing_number"] == 6
+    # a PD of a two-bridge knot now gets the Schubert key (rule (c) of classify)
+    assert k["proof"] == "normal form" and k["crossing_number"] == 6
+    assert k["knot_key"] == key("conway:2 1 1 2")
     kink = parse("braid:1,1,1,2")              # σ2 once: a nugatory crossing
-    assert knot_key(_row(1, kink.to_notation(), kink))["crossing_number"] is None  # nugatory crossing
+    k = knot_key(_no_diagram(_row(1, kink.to_notation(), kink)))
+    assert k["crossing_number"] is None          # no diagram: nothing certifies
+    k = knot_key(_row(1, kink.to_notation(), kink))
+    # with the diagram it simplifies (R1) to the reduced alternating trefoil
+    assert k["knot_key"] == "torus:2,3" and k["crossing_number"] == 3
 
 
 def test_mark_duplicates():
@@ -431,7 +445,7 @@ def test_montesinos_keys_are_invariant_under_isotopies_and_match_jones():
 def test_distinctness_notes():
     rows = [_row(i, n) for i, n in enumerate(["pretzel:2,3,3,5", "pretzel:2,3,5,3", "torus:3,3", "pretzel:2,2,-2"])]
     t = parse("torus:2,3")
-    rows.append(_row(4, t.to_notation(), t))
+    rows.append(_no_diagram(_row(4, t.to_notation(), t)))   # a PD without diagram: fingerprint only
     rows.append(_row(5, "torus:2,3"))
     for r in rows:
         r.update(knot_key(r))

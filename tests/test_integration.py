@@ -57,16 +57,21 @@ def test_duplicates_and_dt_rows_are_marked(tmp_path, capsys):
 
 
 def test_typed_diagram_identical_to_a_family_member_is_named_in_the_knots_table(tmp_path):
-    # The README trefoil PD code is the diagram of torus:2,3 relabelled (same diagram_id),
-    # so the knots table says its fingerprint key is the same type as the normal-form key.
-    (tmp_path / "spec.toml").write_text(SPEC + '\n[[family]]\nkind = "torus"\np = 2\nq = 3\n')
-    (tmp_path / "typed.txt").write_text("pd:[[1,5,2,4],[3,1,4,6],[5,3,6,2]]\n")
+    # The README trefoil PD code is the diagram of torus:2,3 relabelled: a reduced
+    # alternating diagram, so it gets the Schubert key itself (flyping theorem, classify
+    # rule (c)).  The PD of the non-alternating braid diagram of torus:3,4 only gets a
+    # fingerprint, and the knots table says it is the same type (same diagram_id).
+    from pipeline.diagrams.notation import parse
+    (tmp_path / "spec.toml").write_text(SPEC + '\n[[family]]\nkind = "torus"\np = [2, 3]\nq = [3, 4]\n')
+    (tmp_path / "typed.txt").write_text("pd:[[1,5,2,4],[3,1,4,6],[5,3,6,2]]\n"
+                                        + parse("torus:3,4").to_notation() + "\n")
     out = tmp_path / "out"
     assert cli_main(["run", str(tmp_path / "spec.toml"), "--out", str(out), "--jobs", "1", "--quiet"]) == 0
     knots = pipeline.open_census(out).knots.set_index("knot_key")
+    assert knots.loc["torus:2,3", "n_diagrams"] == 2
     fp = [k for k in knots.index if k.startswith("fp")]
     assert len(fp) == 1
-    assert knots.loc[fp[0], "distinctness_note"].startswith("the same type as torus:2,3")
+    assert knots.loc[fp[0], "distinctness_note"].startswith("the same type as torus:3,4")
 
 
 def test_show_names_the_knot_type_like_a_census_would(capsys):

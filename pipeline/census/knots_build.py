@@ -4,7 +4,7 @@
 and it annotates each key with the other keys that share one of its fingerprints.
 It also notes a fingerprint-only key whose rows share a ``diagram_id`` with a row of a
 normal-form key.  So the rows are split into *clusters*: connected components of the
-graph joining a knot key to the fingerprints and to the diagram ids of its rows
+graph joining a knot key to the fingerprints, the diagram ids and the flype codes of its rows
 (union-find over the distinct pairs, a structure the size of the number of distinct
 diagrams, not of the census rows).  Clusters are
 packed into batches of about ``batch_rows`` rows; one streaming pass spills every row
@@ -29,7 +29,7 @@ __all__ = ["knots_rows", "COLUMNS"]
 COLUMNS = ["row_id", "diagram_id", "family", "params", "notation", "crossings", "components",
            "determinant", "determinant_text", "invariant_factors", "alexander", "jones",
            "signature", "chirality", "chirality_reason", "knot_key", "mirror_key", "knot_proof",
-           "status", "extras"]
+           "status", "extras", "flype_code"]
 
 
 def _slim(extras: str | None) -> str | None:
@@ -43,18 +43,21 @@ def _slim(extras: str | None) -> str | None:
 def _batches(dataset, batch_rows: int) -> Iterator[list]:
     sets = UnionFind()
     counts: dict = {}
-    for batch in dataset.to_batches(columns=["knot_key", "extras", "diagram_id"]):
+    for batch in dataset.to_batches(columns=["knot_key", "extras", "diagram_id", "flype_code"]):
         keys = batch.column("knot_key").to_pylist()
         extras = batch.column("extras").to_pylist()
         dids = batch.column("diagram_id").to_pylist()
-        for key, ex, did in zip(keys, extras, dids):
+        codes = batch.column("flype_code").to_pylist()
+        for key, ex, did, code in zip(keys, extras, dids, codes):
             k = ("k", key)
             sets.add(k)
             counts[k] = counts.get(k, 0) + 1
             fp = (json.loads(ex).get("knot") or {}).get("fingerprint") if ex else None
             # a key joins the fingerprints of its rows (fingerprint notes) and their
-            # diagram ids (the same-diagram note): both are read across keys
-            for node in (("f", fp) if fp is not None else None, ("d", did) if did else None):
+            # diagram ids (the same-diagram note) and flype codes (the flype-class check):
+            # all are read across keys
+            for node in (("f", fp) if fp is not None else None, ("d", did) if did else None,
+                         ("c", code) if code else None):
                 if node is not None:
                     sets.union(k, node)
     clusters: dict = {}

@@ -48,7 +48,7 @@ __all__ = ["add_arguments", "main", "run_census", "parse_shard", "versions", "Ru
 
 #: Version of the knot keys and the knots table (pipeline.identify.classify); part of
 #: the census identity.  Bump it when knot keys or knots rows change.
-CLASSIFY_VERSION = "1"
+CLASSIFY_VERSION = "2"   # 2: key precedence with simplification, summands, flype keys
 
 
 class RunFailed(KnotLedgerError):
@@ -254,7 +254,8 @@ def _locked_run(spec: Spec, out: Path, *, jobs: int, resume: bool,
                 overrides: Optional[dict], quiet: bool, fault: Optional[Callable]) -> dict:
     from .store import CensusStore
     opts = {"max_modulus": spec.max_modulus, "jones_budget": spec.jones_budget,
-            "min_colors_budget": spec.min_colors_budget, "timeout": spec.timeout}
+            "min_colors_budget": spec.min_colors_budget, "timeout": spec.timeout,
+            "simplify_budget": spec.simplify_budget, "flype_budget": spec.flype_budget}
     if resume or shard:  # budgets given on the command line at the start stay in force
         opts.update(_started_options(out))
     for key, val in (overrides or {}).items():

@@ -22,7 +22,7 @@ __all__ = [
 ]
 
 #: Bumped whenever a column is added, removed or changes type.
-SCHEMA_VERSION = "1"
+SCHEMA_VERSION = "2"   # 2: simplified_*, prime*, flype_code (issue 11)
 
 INT64_MIN, INT64_MAX = -(2 ** 63), 2 ** 63 - 1
 
@@ -68,6 +68,13 @@ DIAGRAMS = pa.schema([
     _f("knot_key", pa.string()),
     _f("mirror_key", pa.string()),
     _f("knot_proof", pa.string()),
+    # --- begin: simplification / primality / flype columns (issue 11) ---
+    _f("simplified_crossings", pa.int32()),
+    _f("simplified_notation", pa.string()),
+    _f("prime", pa.bool_()),
+    _f("prime_reason", pa.string()),
+    _f("flype_code", pa.string()),
+    # --- end: simplification / primality / flype columns ---
     _f("status", pa.string(), False),
     _f("checks", pa.string()),
     _f("checks_failed", pa.list_(pa.string())),
@@ -97,6 +104,9 @@ KNOTS = pa.schema([
     _f("crossing_number_source", pa.string()),
     _f("fingerprint_shared_with", pa.list_(pa.string())),
     _f("distinctness_note", pa.string()),
+    # --- begin: flype code of the type (issue 11) ---
+    _f("flype_code", pa.string()),
+    # --- end: flype code of the type ---
     _f("extras", pa.string()),
 ])
 

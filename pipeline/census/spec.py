@@ -10,6 +10,8 @@ A spec names families of diagrams and the census options (README.md, "Spec file"
     min_colors_budget = 10000
     timeout = 600           # optional: seconds per chunk before its rows are given up
     knots_only = false      # default for every family
+    simplify_budget = 200000  # optional: most Reidemeister moves when simplifying a row
+    flype_budget = 2000     # optional: most diagrams in one flype orbit (flype normal form)
 
     [[family]]
     kind = "torus"          # p, q: inclusive ranges [lo, hi] or single integers
@@ -34,7 +36,18 @@ braid         ``word = "1^a -2^b 1^c"`` plus one range per letter, ``a = [1, 6]`
 file          ``path`` (relative to the spec file), optional ``format``
               (``csv``, ``jsonl``, ``text``; default from the extension) and
               ``column`` (default ``diagram``)
+alternating   ``crossings = [lo, hi]`` (inclusive, within [1, 16]) and optional
+              ``links = true``: one row per prime alternating knot type (then link
+              type) up to mirror image, in the order of
+              :mod:`pipeline.diagrams.families.alternating`; notation ``alt:N:I``
+              (links ``altlink:N:J``); params ``{"crossings": N, "index": I}`` with I
+              the 1-based position among the knots then links of N crossings
 ============  =====================================================================
+
+Budgets (``[census]``; a row over a budget keeps its other columns, gets the next
+rule's key and says so in its key reason — never a guessed key): ``simplify_budget``
+(default 200000 moves, :data:`pipeline.diagrams.simplify.DEFAULT_BUDGET`) and
+``flype_budget`` (default 2000 orbit members, :data:`pipeline.diagrams.flype.FLYPE_BUDGET`).
 
 The work list is the concatenation of the families in spec order; within a family
 the order is the lexicographic order of the parameters as written.  ``row_id`` is the
@@ -61,7 +74,7 @@ DEFAULT_CHUNK_SIZE = 256
 DEFAULT_MAX_MODULUS = 16
 CENSUS_KEYS = {"name": str, "max_modulus": int, "chunk_size": int, "jones_budget": int,
                "min_colors_budget": int, "timeout": (int, float), "knots_only": bool,
-               "description": str}
+               "description": str, "simplify_budget": int, "flype_budget": int}
 COMMON_KEYS = {"kind", "knots_only", "name"}
 KIND_KEYS = {
     "torus": {"p", "q"},
@@ -70,6 +83,7 @@ KIND_KEYS = {
     "montesinos": {"tangles", "length", "fractions"},
     "braid": {"word"},
     "file": {"path", "format", "column"},
+    "alternating": {"crossings", "links"},
 }
 FILE_FORMATS = {".csv": "csv", ".jsonl": "jsonl", ".ndjson": "jsonl", ".txt": "text",
                 ".text": "text"}
@@ -97,6 +111,8 @@ class Spec:
     families: tuple[Family, ...]
     text: str
     path: Optional[Path] = None
+    simplify_budget: Optional[int] = None
+    flype_budget: Optional[int] = None
 
     @property
     def sha256(self) -> str:
@@ -144,7 +160,8 @@ def parse_spec(text: str, *, base: str | Path = ".", path: Optional[Path] = None
         "chunk_size": census.get("chunk_size", DEFAULT_CHUNK_SIZE),
     }
     for key, lo in (("max_modulus", 2), ("chunk_size", 1), ("jones_budget", 0),
-                    ("min_colors_budget", 0), ("timeout", 0)):
+                    ("min_colors_budget", 0), ("timeout", 0), ("simplify_budget", 0),
+                    ("flype_budget", 1)):
         if key in census and census[key] < lo + (key == "timeout") * 1e-9:
             raise SpecError(f"{loc.at('census', 0, key)}: {key} = {census[key]} must be "
                             f"{'positive' if key == 'timeout' else f'at least {lo}'}")
@@ -158,7 +175,8 @@ def parse_spec(text: str, *, base: str | Path = ".", path: Optional[Path] = None
                 jones_budget=census.get("jones_budget"),
                 min_colors_budget=census.get("min_colors_budget"),
                 timeout=float(census["timeout"]) if "timeout" in census else None,
-                families=fams, text=text, path=path)
+                families=fams, text=text, path=path,
+                simplify_budget=census.get("simplify_budget"), flype_budget=census.get("flype_budget"))
 
 
 class _Locator:
@@ -281,6 +299,8 @@ def _family(i: int, raw: Any, loc: _Locator, base: Path, default_knots: bool) ->
         opts["letters"] = letters
     elif kind == "file":
         opts.update(_file_options(raw, at, head, base))
+    elif kind == "alternating":
+        opts.update(_alternating_options(raw, at, head))
     return Family(i, kind, opts, knots_only, base)
 
 
@@ -323,6 +343,19 @@ def _braid_tokens(where: str, word: str) -> list[tuple[int, int | str]]:
     if not tokens:
         raise SpecError(f"{where}: braid word is empty")
     return tokens
+
+
+def _alternating_options(raw: dict, at, head: str) -> dict:
+    from ..diagrams.families.alternating import MAX_CROSSINGS, MIN_CROSSINGS
+    if "crossings" not in raw:
+        raise SpecError(f"{head}: alternating family needs crossings = [lo, hi]")
+    lo, hi = _range(at("crossings"), "crossings", raw["crossings"])
+    if lo < MIN_CROSSINGS or hi > MAX_CROSSINGS:
+        raise SpecError(f"{at('crossings')}: crossings = {raw['crossings']} must lie within "
+                        f"[{MIN_CROSSINGS}, {MAX_CROSSINGS}]")
+    links = raw.get("links", False)
+    _check_type(at("links"), "links", links, bool)
+    return {"crossings": (lo, hi), "links": links}
 
 
 def _file_options(raw: dict, at, head: str, base: Path) -> dict:

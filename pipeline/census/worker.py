@@ -138,14 +138,26 @@ def _fill(row: dict, inv: dict) -> list[dict]:
     return out
 
 
-def _knot_key(row: dict, inv: dict, d) -> None:
+#: knot_key fields stored in columns of their own (the rest goes to extras['knot'])
+_KEY_TEXT_COLUMNS = ("knot_key", "mirror_key", "knot_proof", "chirality", "chirality_reason")
+# --- begin: simplification / primality / flype columns (issue 11) ---
+_STRUCTURE_COLUMNS = ("simplified_crossings", "simplified_notation", "prime", "prime_reason",
+                      "flype_code")
+# --- end: simplification / primality / flype columns ---
+
+
+def _knot_key(row: dict, inv: dict, d, opts: Optional[dict] = None) -> None:
     from ..identify.classify import knot_key
-    got = knot_key({**inv, **{k: v for k, v in row.items() if k not in inv}, "diagram": d})
+    opts = opts or {}
+    got = knot_key({**inv, **{k: v for k, v in row.items() if k not in inv}, "diagram": d},
+                   simplify_budget=opts.get("simplify_budget"), flype_budget=opts.get("flype_budget"))
     extra = {}
     for k, v in (got or {}).items():
         col = {"proof": "knot_proof"}.get(k, k)
-        if col in ("knot_key", "mirror_key", "knot_proof", "chirality", "chirality_reason"):
+        if col in _KEY_TEXT_COLUMNS:
             row[col] = None if v is None else str(v)
+        elif col in _STRUCTURE_COLUMNS:
+            row[col] = v
         else:
             extra[k] = _jsonable(v)
     if extra:
@@ -175,7 +187,7 @@ def _one(item, opts: dict, out: dict, fault: Optional[Callable]) -> None:
             fault(item)
         inv = _invariants(d, opts, item.notation)
         out["colorings"].extend(_fill(row, inv))
-        _knot_key(row, inv, d)
+        _knot_key(row, inv, d, opts)
     except (ChunkTimeout, KeyboardInterrupt, SystemExit):
         raise
     except BaseException as err:  # noqa: BLE001 - isolation: any failure is this row's status
@@ -198,7 +210,8 @@ def compute_chunk(chunk: int, items: Sequence, opts: dict, *,
                   fault: Optional[Callable] = None) -> dict:
     """Compute one chunk; return ``{"chunk", "diagrams", "colorings", "rejects", "stats"}``.
 
-    ``opts``: ``max_modulus``, ``jones_budget``, ``min_colors_budget``, ``timeout``
+    ``opts``: ``max_modulus``, ``jones_budget``, ``min_colors_budget``, ``simplify_budget``,
+    ``flype_budget`` (None: the defaults of :mod:`pipeline.identify.flype_keys`), ``timeout``
     (seconds for the whole chunk; ``None`` or 0 for none).  ``fault``: see the module
     docstring (tests only).
     """

@@ -5,7 +5,8 @@ family the order is the lexicographic order of the parameters as written, so the
 spec and input files always give the same list and ``row_id`` (the position) is a
 stable row key.  ``knots_only`` is decided from the parameters where a published rule
 allows it (torus: gcd(p, q) = 1; pretzel: the parity rule; two-bridge: α odd; braid:
-the permutation of the braid is one cycle); otherwise the worker decides after
+the permutation of the braid is one cycle; alternating: the enumeration separates knots
+from links); otherwise the worker decides after
 parsing (``WorkItem.check_knot``).  Nothing here builds a diagram.
 """
 
@@ -100,10 +101,23 @@ def _family_entries(fam) -> Iterator[tuple]:
             if ko and word and braid_components(word) != 1:
                 continue
             yield "braid:" + ",".join(map(str, word)), _js(env), None, None, False, None
+    elif fam.kind == "alternating":
+        yield from _alternating_entries(o, ko)
     elif fam.kind == "file":
         from .spec_files import read_rows
         for text, labels, source, error in read_rows(o["path"], o["format"], o["column"], o["relpath"]):
             yield text, "{}", labels, source, ko, error
+
+
+def _alternating_entries(o: dict, knots_only: bool) -> Iterator[tuple]:
+    """alt:N:I (then altlink:N:J) for N in the range, in the family's documented order."""
+    from ..diagrams.families.alternating import codes
+    for n in range(o["crossings"][0], o["crossings"][1] + 1):
+        knots = len(codes(n))
+        total = len(codes(n, links=True)) if o["links"] and not knots_only else knots
+        for i in range(1, total + 1):
+            text = f"alt:{n}:{i}" if i <= knots else f"altlink:{n}:{i - knots}"
+            yield text, _js({"crossings": n, "index": i}), None, None, False, None
 
 
 def iter_items(spec) -> Iterator[WorkItem]:

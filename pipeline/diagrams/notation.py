@@ -9,7 +9,14 @@
 ``rational:α/β``                   two-bridge link b(α, β)
 ``conway:a1 a2 ... an``            rational link with fraction a1 + 1/(a2 + ...)
 ``montesinos:β1/α1,...,βr/αr``     Montesinos link; an integer n means n/1
+``alt:N:I``                        the I-th prime alternating knot with N crossings
+``altlink:N:I``                    the I-th prime alternating link (>= 2 components)
+                                   with N crossings (links numbered on their own)
 =================================  ================================================
+
+``alt`` / ``altlink`` follow the documented order of
+:mod:`pipeline.diagrams.families.alternating` (1 <= N <= 16; the index is checked
+when the diagram is built, since that needs the enumeration).
 
 Every parse error is a :class:`~pipeline.errors.NotationError` with a one-line
 reason naming the offending token.
@@ -142,8 +149,37 @@ def _read_dt(args: str) -> tuple:
     return tuple(code)
 
 
+# --- begin: alt / altlink (issue 11) ---
+def _read_alt(kind: str, args: str) -> tuple:
+    from .families import alternating
+    m = re.fullmatch(r"\s*(\d+)\s*:\s*(\d+)\s*", args)
+    if not m:
+        raise NotationError(f"{kind}: {args.strip()[:40]!r} is not N:I (crossings and a 1-based index)")
+    n, i = int(m.group(1)), int(m.group(2))
+    if not alternating.MIN_CROSSINGS <= n <= alternating.MAX_CROSSINGS:
+        raise NotationError(f"{kind}: crossings {n} is outside [{alternating.MIN_CROSSINGS}, "
+                            f"{alternating.MAX_CROSSINGS}]")
+    if i < 1:
+        raise NotationError(f"{kind}: index {i} must be at least 1")
+    return (n, i)
+
+
+def _build_alt(kind: str, n: int, i: int) -> Diagram:
+    from .families import alternating
+    if kind == "alt":
+        return alternating.diagram(n, i)
+    knots = len(alternating.codes(n))
+    links = len(alternating.codes(n, links=True)) - knots
+    if i > links:
+        raise NotationError(f"altlink: index {i} is outside [1, {links}] for {n} crossings")
+    return alternating.diagram(n, knots + i, links=True)
+# --- end: alt / altlink ---
+
+
 def _build(kind: str, args: tuple) -> Diagram:
     from . import dt
+    if kind in ("alt", "altlink"):
+        return _build_alt(kind, *args)
     from .families import braid, montesinos, pretzel, torus, two_bridge
     if kind == "pd":
         data, free = args
@@ -172,6 +208,8 @@ _READERS: dict[str, Callable[[str], tuple]] = {
     "rational": _read_rational,
     "conway": _read_conway,
     "montesinos": _read_montesinos,
+    "alt": lambda args: _read_alt("alt", args),
+    "altlink": lambda args: _read_alt("altlink", args),
 }
 
 
@@ -181,6 +219,7 @@ class Notation:
 
     ``args`` by kind: ``pd`` (crossings as tuples, free loops); ``dt``, ``braid``,
     ``pretzel``, ``conway``: the integers; ``torus``: (p, q); ``rational``: (α, β);
+    ``alt``, ``altlink``: (N, I);
     ``montesinos``: the tangle fractions β_i/α_i (:class:`~fractions.Fraction`).
     Build one with :func:`parse_notation`; :meth:`diagram` realises it.
 
@@ -212,6 +251,8 @@ def _text_of(n: Notation) -> str:
         return json.dumps([list(x) if isinstance(x, tuple) else x for x in n.args[0]])
     if n.kind == "rational":
         return f"{n.args[0]}/{n.args[1]}"
+    if n.kind in ("alt", "altlink"):
+        return f"{n.args[0]}:{n.args[1]}"
     return ",".join(map(str, n.args))
 
 

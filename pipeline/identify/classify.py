@@ -1,13 +1,46 @@
 """Deduplication with proofs: knot keys, fingerprints, the knots table.
 
-A census row gets a **knot key** naming its unoriented link type:
+A census row gets a **knot key** naming its unoriented link type.
 
-* from a **normal form** when its notation (or family parameters) is a torus,
-  two-bridge, conway, pretzel or Montesinos presentation, or a braid word of the
-  torus form (σ1⋯σ_{p−1})^q — see :mod:`pipeline.identify.normal_forms` for the theorems; the
-  key then comes with ``proof = 'normal form'``, its mirror's key and a chirality
-  verdict from the same theorem;
-* otherwise from a **fingerprint** of its invariants (``proof = 'fingerprint only'``).
+Key precedence
+--------------
+The first rule that applies *with a proof* gives the key; a rule that cannot decide
+(no theorem applies, or a budget ran out) falls to the next one, never to a guess.
+Rules (a) and (c) live in :mod:`pipeline.identify.flype_keys`.
+
+(a) **split / composite diagrams**: the diagram is simplified
+    (:func:`pipeline.diagrams.simplify.simplify`) and cut into split pieces and
+    visible summands (:func:`pipeline.diagrams.primality.decompose`).  When there is
+    more than one piece or summand and every summand is reduced alternating (prime,
+    Menasco 1984) with a key by rule (c), the key is
+    :func:`~pipeline.identify.normal_forms.connected_sum_nf` of the summands (knots
+    only: unique prime decomposition, H. Schubert 1949) and
+    :func:`~pipeline.identify.normal_forms.split_nf` of the pieces.  A diagram that
+    simplifies to one crossingless loop is the unknot.
+(b) **family normal forms**, from the notation or the family parameters: torus,
+    Schubert two-bridge (``rational``, ``conway``), Bonahon–Siebenmann Montesinos and
+    pretzel, a braid word of the torus form — see :mod:`pipeline.identify.normal_forms`.
+(c) **reduced prime alternating diagrams** (after simplification), rows not keyed by
+    (b): two-bridge links are recognised first by comparing flype codes with every
+    rational candidate of equal determinant, crossing count and Jones polynomial
+    (exhaustive, so a miss proves "not two-bridge") and get the Schubert key; the
+    others get the flype key ``alt:<24 hex digits of sha256(flype code)>`` (flyping
+    theorem, Menasco–Thistlethwaite, Annals of Math. 138, 1993), its mirror key from
+    the mirror's flype code, a chirality verdict from the same theorem and the
+    certified crossing number of the reduced alternating diagram.
+(d) **alternating Montesinos family rows** (three or more tangles) keep their
+    Bonahon–Siebenmann key by (b).  *Known gap*: the same knot typed in as a braid,
+    PD or DT code gets the flype key by (c) (no Montesinos recognition inside
+    arbitrary diagrams); the knots table notes such pairs as the same type (equal
+    flype codes) instead of merging them.
+(e) otherwise a **fingerprint** of the invariants (``proof = 'fingerprint only'``);
+    ``key_reason`` says which budget or missing theorem sent the row here.
+
+Every key from (a)–(d) has ``proof = 'normal form'``.  For rows carrying a diagram
+the result also has ``simplified_crossings``, ``simplified_notation`` (None when not
+smaller), ``prime`` / ``prime_reason`` and ``flype_code`` (the diagram's flype code
+when it simplifies to a reduced prime alternating diagram, for the knots-table check
+that no two normal-form keys share a flype class).
 
 Fingerprints (:mod:`pipeline.identify.fingerprint`)
 ------------------------------------------
@@ -44,6 +77,7 @@ from ..errors import KnotLedgerError
 from ..invariants.row import InvariantValues
 from .fingerprint import fingerprint, jones_orientation_set, mirror_fingerprint
 from .normal_forms import (CN_ALT, NormalForm, montesinos_nf, pretzel_nf, torus_nf, two_bridge_nf)
+from . import flype_keys
 
 __all__ = ["canonical_text", "diagram_id", "knot_key", "fingerprint", "build_knots_table",
            "mark_duplicates", "duplicate_of", "normal_form", "is_reduced", "jones_orientation_set", "KeyConflictError"]
@@ -146,8 +180,9 @@ def _alternating_cn(row: dict) -> Optional[int]:
 
 
 # ---------------------------------------------------------------------- keys
-def knot_key(row: dict) -> dict:
-    """Knot key of one diagram row.
+def knot_key(row: dict, *, simplify_budget: Optional[int] = None,
+             flype_budget: Optional[int] = None) -> dict:
+    """Knot key of one diagram row, by the precedence of the module docstring.
 
     Parameters
     ----------
@@ -155,16 +190,24 @@ def knot_key(row: dict) -> dict:
         ``notation`` (and/or ``family`` + ``params``), ``components``, the invariants
         (``determinant``, ``invariant_factors``, ``alexander``, ``jones``,
         ``signature``; Laurent, JSON list or JSON text; None if missing) and optionally
-        ``diagram`` (a :class:`Diagram`, for link fingerprints and crossing numbers).
+        ``diagram`` (a :class:`Diagram`: needed for rules (a) and (c), link
+        fingerprints and crossing numbers).
+    simplify_budget, flype_budget : int, optional
+        Move budget of the simplification and orbit budget of the flype normal form
+        (defaults :data:`pipeline.identify.flype_keys.SIMPLIFY_BUDGET`,
+        :data:`~pipeline.identify.flype_keys.FLYPE_BUDGET`).
 
     Returns
     -------
     dict
         ``knot_key``, ``mirror_key``, ``proof`` (``normal form`` / ``fingerprint only``),
-        ``amphichiral`` (True / False / None), ``amphichiral_reason``, ``crossing_number``
-        (certified or None), ``crossing_number_source``, ``fingerprint``; and, when a
-        normal form decides, ``chirality`` / ``chirality_reason`` in the README.md
-        vocabulary (``amphichiral (normal form)`` / ``chiral (normal form)``).
+        ``key_rule``, ``key_reason``, ``amphichiral`` (True / False / None),
+        ``amphichiral_reason``, ``crossing_number`` (certified or None),
+        ``crossing_number_source``, ``fingerprint``; when a normal form decides,
+        ``chirality`` / ``chirality_reason`` in the README.md vocabulary
+        (``amphichiral (normal form)`` / ``chiral (normal form)``); with a diagram also
+        ``simplified_crossings``, ``simplified_notation``, ``simplify_moves``,
+        ``prime``, ``prime_reason``, ``summands`` and ``flype_code``.
 
     Examples
     --------
@@ -175,10 +218,27 @@ def knot_key(row: dict) -> dict:
     comps = row.get("components")
     if nf is not None and comps is not None and int(comps) != nf.components:
         nf = None   # the normal form disagrees with the diagram: never key by it (a bug to report)
+    d = row.get("diagram")
+    st = None
+    if isinstance(d, Diagram):
+        st = flype_keys.structure(
+            d, simplify_budget=flype_keys.SIMPLIFY_BUDGET if simplify_budget is None else simplify_budget,
+            flype_budget=flype_keys.FLYPE_BUDGET if flype_budget is None else flype_budget,
+            jones=InvariantValues.from_record(row).jones if d.n_components == 1 else None,
+            key=nf is None)
+    extra = _structure_fields(d, st)
+    rule, reason = None, None
+    if st is not None and st.nf is not None and (nf is None or st.rule != "alternating"):
+        nf, rule, reason = st.nf, st.rule, st.key_reason          # rule (a), or (c) without (b)
+    elif nf is not None:
+        rule, reason = "family", "family normal form (pipeline.identify.normal_forms)"   # rule (b)
     alt_cn = _alternating_cn(row)
+    if alt_cn is None and st is not None and st.simplified is not None:
+        alt_cn = _diagram_facts.alternating_crossing_number(st.simplified)
     fp = fingerprint(row)
     if nf is not None:
         out = {"knot_key": nf.key, "mirror_key": nf.mirror_key, "proof": "normal form",
+               "key_rule": rule, "key_reason": reason,
                "amphichiral": nf.amphichiral, "amphichiral_reason": nf.amphichiral_reason,
                "crossing_number": nf.crossing_number, "crossing_number_source": nf.crossing_number_source,
                "fingerprint": fp,
@@ -186,7 +246,7 @@ def knot_key(row: dict) -> dict:
                "chirality_reason": nf.amphichiral_reason}
         if out["crossing_number"] is None and alt_cn is not None:
             out["crossing_number"], out["crossing_number_source"] = alt_cn, CN_ALT
-        return out
+        return {**out, **extra}
     mfp = mirror_fingerprint(row)
     amph, reason = None, "unknown: invariants do not decide"
     values = InvariantValues.from_record(row)
@@ -198,9 +258,25 @@ def knot_key(row: dict) -> dict:
             amph, reason = False, "chiral (signature): signature != 0"
     elif fp.startswith("fp:") and mfp != fp:
         amph, reason = False, "chiral (jones): the sets of Jones polynomials over orientations differ"
-    return {"knot_key": fp, "mirror_key": mfp, "proof": "fingerprint only", "amphichiral": amph,
+    why = "; ".join(st.notes) if st is not None and st.notes else "no classification theorem applies"
+    return {"knot_key": fp, "mirror_key": mfp, "proof": "fingerprint only", "key_rule": "fingerprint",
+            "key_reason": f"fingerprint only: {why}", "amphichiral": amph,
             "amphichiral_reason": reason, "crossing_number": alt_cn,
-            "crossing_number_source": CN_ALT if alt_cn is not None else None, "fingerprint": fp}
+            "crossing_number_source": CN_ALT if alt_cn is not None else None, "fingerprint": fp, **extra}
+
+
+def _structure_fields(d, st) -> dict:
+    """The simplification / primality / flype fields of a row with a diagram."""
+    if st is None or st.simplified is None:
+        return {}
+    s = st.simplified
+    return {"simplified_crossings": s.n_crossings,
+            "simplified_notation": s.to_notation() if st.simplified_smaller else None,
+            "simplify_moves": dict(st.simplify_moves),
+            "prime": st.prime, "prime_reason": st.prime_reason,
+            "summands": [{"piece": k, "crossings": sd.n_crossings, "knot_key": sn.key}
+                         for k, sd, sn in st.summands],
+            "flype_code": st.flype_code}
 
 
 # ---------------------------------------------------------------------- tables

@@ -16,7 +16,12 @@
 4. **notes** (:func:`add_notes`): keys sharing a fingerprint with other keys get
    ``fingerprint_shared_with`` and a ``distinctness_note`` saying which theorem, if any,
    separates them; a fingerprint-only key with a diagram identical (same
-   ``diagram_id``) to one of a normal-form key is noted as the same type.
+   ``diagram_id``) to one of a normal-form key is noted as the same type;
+5. **flype classes** (:func:`check_flype_classes`): the rows of one key have at most one
+   flype code, and no two normal-form keys share a flype code (equal codes are one
+   link by the flyping theorem, Menasco–Thistlethwaite 1993) — except the documented
+   gap of :mod:`pipeline.identify.classify` rule (d), an ``alt:`` key and a
+   Bonahon–Siebenmann ``mont:`` key, which is noted as the same type.
 
 References
 ----------
@@ -40,7 +45,7 @@ from .fingerprint import _factors, _poly
 from .normal_forms import CN_ALT
 
 __all__ = ["build_knots_table", "group_rows", "check_invariants", "amphichirality",
-           "crossing_number", "add_notes", "KeyConflictError"]
+           "crossing_number", "add_notes", "check_flype_classes", "KeyConflictError"]
 
 _UNKNOWN = "unknown: invariants do not decide"
 
@@ -107,11 +112,48 @@ def build_knots_table(rows: list[dict]) -> list[dict]:
             "min_crossings_seen": min(crossings) if crossings else None,
             "crossing_number": cn,
             "crossing_number_source": src,
+            "flype_code": _flype_code(key, members, metas),
             "_fps": {m.get("fingerprint") for m in metas if m.get("fingerprint")},
             "_dids": did,
         })
     add_notes(out)
+    check_flype_classes(out)
     return out
+
+
+# ---------------------------------------------------------------------- flype classes
+def _flype_code(key: str, members: list[dict], metas: list[dict]) -> Optional[str]:
+    """The one flype code of a key's rows (None if no row has one)."""
+    codes = {m.get("flype_code") for m in list(members) + list(metas) if m.get("flype_code")}
+    if len(codes) > 1:
+        raise KeyConflictError(f"knot key {key!r}: rows have {len(codes)} different flype codes "
+                               "(two link types under one key: a normal form is wrong)")
+    return next(iter(codes), None)
+
+
+def check_flype_classes(out: list[dict]) -> None:
+    """Raise :class:`KeyConflictError` when two normal-form keys share a flype code.
+
+    The one allowed case (rule (d), a known gap): an ``alt:`` flype key and a
+    ``mont:`` key of the same alternating Montesinos link; both get a note.
+    """
+    by_code: dict[str, list[dict]] = {}
+    for row in out:
+        if row.get("flype_code") and row["proof"] == "normal form":
+            by_code.setdefault(row["flype_code"], []).append(row)
+    for rows in by_code.values():
+        if len(rows) < 2:
+            continue
+        kinds = sorted(r["knot_key"].split(":", 1)[0] for r in rows)
+        names = ", ".join(sorted(r["knot_key"] for r in rows))
+        if kinds != ["alt", "mont"]:
+            raise KeyConflictError(f"knot keys {names} share a flype class (the same link by the "
+                                   "flyping theorem): a normal form or the flype code is wrong")
+        for r in rows:
+            other = [x["knot_key"] for x in rows if x is not r][0]
+            note = (f"the same type as {other}: equal flype codes (flyping theorem); an alternating "
+                    "Montesinos link keyed by its family and by a typed-in diagram (known gap)")
+            r["distinctness_note"] = note if not r.get("distinctness_note") else r["distinctness_note"] + "; " + note
 
 
 # ---------------------------------------------------------------------- grouping

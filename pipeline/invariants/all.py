@@ -28,6 +28,10 @@ ALGORITHM_VERSIONS = {
     "signature": "1",
     "checks": "1",
     "chirality": "1",
+    # --- begin: issue 11 (simplification, primality, flype normal form in the rows) ---
+    "simplify": "1",
+    "flype": "1",
+    # --- end: issue 11 ---
 }
 
 DEFAULT_MIN_COLORS_BUDGET = 10_000

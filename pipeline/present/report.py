@@ -27,6 +27,7 @@ from typing import Any
 
 from . import plots as rp
 from .explorer import write_explorer
+from .report_types import knot_types_blocks
 from .files import write_text_atomic
 from ..census.reader import Census, exact_int, open_census
 from ..errors import QueryError
@@ -169,6 +170,7 @@ def _knot_types(c: Census, blocks: list, plots: Path) -> None:
                             + ", ".join(f"{p} {n}" for p, n in sorted(proofs.items()))
                             + ("; amphichiral: " + ", ".join(f"{a} {n}" for a, n in sorted(amph.items())) if amph else "")
                             + "."))
+        blocks += knot_types_blocks(k)   # issue 11: per crossing number, how proven
     shared = sorted((k, sorted(fs)) for k, fs in across.items() if len(fs) > 1)
     blocks.append(("p", f"{len(shared)} knot keys occur in more than one family"
                         + (": " + "; ".join(f"{k} ({', '.join(fs)})" for k, fs in shared[:MAX_LISTED]) if shared else ".")))

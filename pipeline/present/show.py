@@ -13,6 +13,13 @@ chirality, checks, ...) is printed after that.
 ``components``, ``writhe``, ``determinant``, ``invariant_factors``, ``colorings``
 (modulus as a string -> count) plus every other key of the census row; polynomials
 in the ``[[exponent, coefficient], ...]`` form; every integer exact.
+
+When the diagram is simplified (:func:`pipeline.diagrams.simplify.simplify`) to fewer
+crossings, the page prints the smaller diagram (crossings, moves, notation); it prints
+the primality verdict with its reason and the keyed summands, and the reason of the
+knot key (e.g. the flyping theorem).  ``--json`` carries the same as ``simplified``
+(``crossings``, ``smaller``, ``moves``, ``notation``) and ``prime`` (``prime``,
+``reason``, ``summands``), beside ``knot`` (with ``key_reason`` and ``flype_code``).
 """
 
 from __future__ import annotations
@@ -112,11 +119,43 @@ def _add_knot_type(row: dict, diagram: Diagram, notation: str) -> None:
     except Exception as err:  # the page must still show every other invariant
         row["knot"] = {"error": f"{type(err).__name__}: {err}"}
         return
-    row["knot"] = {k: got.get(k) for k in ("knot_key", "mirror_key", "proof", "amphichiral",
-                                            "amphichiral_reason", "crossing_number",
-                                            "crossing_number_source") if k in got}
+    row["knot"] = {k: got.get(k) for k in ("knot_key", "mirror_key", "proof", "key_rule", "key_reason",
+                                            "amphichiral", "amphichiral_reason", "crossing_number",
+                                            "crossing_number_source", "flype_code") if k in got}
     if got.get("chirality"):
         row["chirality"], row["chirality_reason"] = got["chirality"], got.get("chirality_reason")
+    _add_structure(row, got)
+
+
+# --- begin: simplification and primality (issue 11) ---
+def _add_structure(row: dict, got: dict) -> None:
+    """``simplified`` and ``prime`` of the page and of ``--json`` (from the knot key)."""
+    if "simplified_crossings" not in got:
+        return
+    row["simplified"] = {"crossings": got["simplified_crossings"],
+                         "smaller": got.get("simplified_notation") is not None,
+                         "moves": got.get("simplify_moves") or {},
+                         "notation": got.get("simplified_notation")}
+    row["prime"] = {"prime": got.get("prime"), "reason": got.get("prime_reason"),
+                    "summands": list(got.get("summands") or [])}
+
+
+def _structure_lines(row: dict) -> list[str]:
+    lines = []
+    simp = row.get("simplified")
+    if isinstance(simp, dict) and simp.get("smaller"):
+        moves = ", ".join(f"{k} {v}" for k, v in simp["moves"].items() if v)
+        lines += ["", f"Simplified diagram: {simp['crossings']} crossings (moves: {moves})",
+                  f"  {simp['notation']}"]
+    pr = row.get("prime")
+    if isinstance(pr, dict):
+        verdict = {True: "prime", False: "not prime", None: "unknown"}[pr.get("prime")]
+        lines += ["", f"Primality: {verdict} ({pr.get('reason')})"]
+        for sm in pr.get("summands") or []:
+            lines.append(f"  summand (piece {sm['piece'] + 1}): {sm['crossings']} crossings, "
+                         f"knot key {sm['knot_key']}")
+    return lines
+# --- end: simplification and primality ---
 
 
 def to_json_object(diagram: Diagram, notation: str, row: dict) -> dict:
@@ -208,6 +247,7 @@ def render_page(diagram: Diagram, notation: str, row: dict, *, max_modulus: int)
         out += _colouring_table(row, factors)
         out += _witness_lines(row, names, det, max_modulus)
     out += _other_invariants(row)
+    out += _structure_lines(row)
     quoted = shlex.quote(notation.strip())
     out += ["", f"status: {row.get('status', 'ok')}",
             f"To draw this diagram with its arcs labelled: knotledger draw {quoted} --out FILE.svg"]
@@ -262,6 +302,9 @@ def _other_invariants(row: dict) -> list[str]:
     if isinstance(knot, dict) and knot.get("knot_key"):
         cn = knot.get("crossing_number")
         lines.append(f"  knot key   {knot['knot_key']} ({knot.get('proof')}; mirror {knot.get('mirror_key')})")
+        if knot.get("key_reason"):
+            wrapped = _wrap(knot["key_reason"].split(" "), " " * 13)
+            lines += ["  key reason " + wrapped[0].strip()] + wrapped[1:]
         if cn is not None:
             lines.append(f"  crossing number {cn} ({knot.get('crossing_number_source')})")
     bounds = row.get("bounds")

@@ -6,6 +6,6 @@ so handedness is the geometric one of the construction, pinned by README.md:
 ``pretzel:-2,3,3`` is ``torus:3,4``.
 """
 
-from . import braid, montesinos, pretzel, torus, two_bridge
+from . import alternating, braid, montesinos, pretzel, torus, two_bridge
 
-__all__ = ["braid", "montesinos", "pretzel", "torus", "two_bridge"]
+__all__ = ["alternating", "braid", "montesinos", "pretzel", "torus", "two_bridge"]
