@@ -239,8 +239,9 @@ def _tangle(tw: list[int], c: int, s: int, cut: set[int]) -> frozenset | None:
     return frozenset(inside) if leaving == 4 else None
 
 
-def shadow_flypes(tw: list[int]) -> Iterator[ShadowFlype]:
-    """Every flype whose tangle has at least two crossings and leaves two outside."""
+def shadow_flypes(tw: list[int], *, only: int | None = None) -> Iterator[ShadowFlype]:
+    """Every flype whose tangle has at least two crossings and leaves two outside
+    (only those at crossing ``only`` when given)."""
     face = faces(tw)
     adj: dict[int, dict[int, list[int]]] = {}
     for h, g in enumerate(tw):
@@ -250,7 +251,7 @@ def shadow_flypes(tw: list[int]) -> Iterator[ShadowFlype]:
             if e != f:
                 adj.setdefault(e, {}).setdefault(f, []).append(h)
     n = len(tw) // 4
-    for c in range(n):
+    for c in range(n) if only is None else (only,):
         c_edges = {min(h, tw[h]) for h in range(4 * c, 4 * c + 4)}
         for s in range(4):
             f0, f1 = face[4 * c + (s + 1) % 4], face[4 * c + (s + 2) % 4]
