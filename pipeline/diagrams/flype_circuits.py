@@ -116,10 +116,19 @@ def block_flype(tw: list[int], over: list[bool], chain: list[int], tangle: froze
 def block_flypes(tw: list[int], over: list[bool]):
     """Every distinct block flype of the diagram: yields (twins, over) after each."""
     reg = twist_regions(tw)
+    size: dict[int, int] = {}
+    for r in reg:
+        size[r] = size.get(r, 0) + 1
+    n = len(reg)
     done: set = set()
     for m in shadow_flypes(tw):
         r = reg[m.c]
         if any(reg[i] == r for i in m.tangle):
+            continue
+        # flyping across the rest of the diagram instead gives the same diagram turned
+        # over (every tangle of the circuit turned over): keep the smaller side only
+        rest = n - len(m.tangle) - size[r]
+        if rest >= 2 and len(m.tangle) > rest:
             continue
         key = (r, m.tangle)
         if key in done:
