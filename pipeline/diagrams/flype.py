@@ -102,8 +102,9 @@ __all__ = [
     "diagram_of_code",
 ]
 
-#: Default budget: the most diagrams one flype orbit may have before giving up
-#: (about 5-30 ms per member at 40 crossings, so at most about a minute there).
+#: Default budget: the most members one flype search may record before giving up
+#: (gathered members for flype_code, about 10-30 ms each at 40 crossings; whole
+#: orbit for the reference routes).
 FLYPE_BUDGET = 2000
 
 

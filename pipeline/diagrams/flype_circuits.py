@@ -33,6 +33,17 @@ That it reaches *all* gathered members follows from the circuit structure above
 (gathering a circuit and walking its gathered crossings from gap to gap are block
 flypes); this completeness is what :mod:`pipeline.diagrams.flype` relies on, and it
 is checked against the whole-orbit search on random diagrams in tests/test_flype.py.
+
+What is left
+------------
+The gathered members are still a product over circuits of the gap that holds each
+circuit's crossings (two for a lone crossing beside a tangle, which turns the tangle
+over as it moves), so diagrams with many circuits keep hundreds or thousands of
+gathered members (reports/bench_flype.md).  Choosing each circuit's gap
+independently needs a canonical code of every tangle up to its own flypes, bottom-up
+over the nesting of the circuits — in the checkerboard (Tait) graph, a decomposition
+at its 2-vertex cuts in which flypes move single edges inside series and parallel
+pieces; not done here.
 """
 
 from __future__ import annotations
