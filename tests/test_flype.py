@@ -140,6 +140,15 @@ def test_orbit_budget_raises_instead_of_guessing():
         flype_orbit(d, budget=1)
 
 
+def test_gathered_search_budget_raises_instead_of_guessing():
+    # conway:2 2 2 2 2 2 has four members with the fewest twist regions (whole-orbit count)
+    d = parse("conway:2 2 2 2 2 2")
+    orbit = flype_orbit(d)
+    assert flype_code(d) == orbit[0]
+    with pytest.raises(BudgetExceeded, match="flype budget 2"):
+        flype_code(d, budget=2)
+
+
 def test_orbit_members_are_diagrams_of_the_code_type():
     d = parse("montesinos:1/3,2/5,2/7")
     orbit = flype_orbit(d)
@@ -178,7 +187,8 @@ def test_random_diagram_refuses_tiny_sizes():
 def test_twist_regions_of_standard_pictures(text, regions):
     # Counted by hand on the standard pictures: a Conway (4-plat) form a1 … ak has one twist
     # region per term; a pretzel form one per column; 2/5 = [2, 2] and 2/7 = [3, 2] as
-    # continued fractions give two regions each (1 + 2 + 2).
+    # continued fractions give two regions each (1 + 2 + 2) *(common practice: counted on the
+    # standard pictures, J. H. Conway, "An enumeration of knots and links", 1970)*.
     assert twist_count(twins(parse(text))) == regions
 
 
