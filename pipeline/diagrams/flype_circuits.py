@@ -48,6 +48,7 @@ pieces; not done here.
 
 from __future__ import annotations
 
+from array import array
 from collections import deque
 
 from ..errors import BudgetExceeded
@@ -160,19 +161,26 @@ def gathered_states(tw: list[int], over: list[bool], budget: int) -> dict:
 
     Breadth-first search by block flypes, restarted from any member with fewer twist
     regions; ``budget`` bounds the members recorded over all restarts
-    (``BudgetExceeded('flype', budget)``).
+    (``BudgetExceeded('flype', budget)``).  Block flypes of different circuits commute
+    and keep the crossing labels, so the same labelled array is often met again: its
+    (twist count, code) is remembered by the exact array (never a guess).
     """
     level = twist_count(tw)
     states = {alternating_codes(tw, over)[0]: (tw, over)}
     queue = deque([(tw, over)])
     used = 1
+    known: dict[bytes, tuple] = {}
     while queue:
         tw, over = queue.popleft()
         for tw2, over2 in block_flypes(tw, over):
-            k = twist_count(tw2)
-            if k > level:
+            key = array("l", tw2).tobytes() + bytes(over2)
+            got = known.get(key)
+            if got is None:
+                k = twist_count(tw2)
+                got = known[key] = (k, alternating_codes(tw2, over2)[0] if k <= level else None)
+            k, code = got
+            if k > level:  # the level only goes down, so such an entry stays above it
                 continue
-            code = alternating_codes(tw2, over2)[0]
             if k == level and code in states:
                 continue
             used += 1
