@@ -103,7 +103,7 @@ __all__ = [
 ]
 
 #: Default budget: the most members one flype search may record before giving up
-#: (gathered members for flype_code, about 10-30 ms each at 40 crossings; whole
+#: (gathered members for flype_code, about 5-7 ms each at 40 crossings; whole
 #: orbit for the reference routes).
 FLYPE_BUDGET = 2000
 
