@@ -16,8 +16,10 @@ from pipeline import parse
 from pipeline.diagrams.canonical import canonical_text, turn_over_pd
 from pipeline.diagrams.diagram import Diagram
 from pipeline.diagrams.flype import (
-    NotReducedAlternating, check_reduced_prime_alternating, flype_code, flype_codes,
-    flype_orbit, flypes, is_amphichiral)
+    NotReducedAlternating, check_reduced_prime_alternating, flype_code, flype_code_by_orbit,
+    flype_codes, flype_codes_by_orbit, flype_orbit, flypes, is_amphichiral)
+from pipeline.diagrams.flype_circuits import block_flypes, twist_count
+from pipeline.diagrams.shadow import to_diagram, twins
 from pipeline.errors import BudgetExceeded, KnotLedgerError
 from pipeline.invariants.coloring import determinant
 from pipeline.invariants.jones import jones_polynomial
@@ -138,6 +140,15 @@ def test_orbit_budget_raises_instead_of_guessing():
         flype_orbit(d, budget=1)
 
 
+def test_gathered_search_budget_raises_instead_of_guessing():
+    # conway:2 2 2 2 2 2 has four members with the fewest twist regions (whole-orbit count)
+    d = parse("conway:2 2 2 2 2 2")
+    orbit = flype_orbit(d)
+    assert flype_code(d) == orbit[0]
+    with pytest.raises(BudgetExceeded, match="flype budget 2"):
+        flype_code(d, budget=2)
+
+
 def test_orbit_members_are_diagrams_of_the_code_type():
     d = parse("montesinos:1/3,2/5,2/7")
     orbit = flype_orbit(d)
@@ -167,3 +178,74 @@ def test_random_diagram_refuses_tiny_sizes():
     from pipeline.diagrams.families.alternating import random_diagram
     with pytest.raises(KnotLedgerError, match="must be an integer >= 2"):
         random_diagram(1)
+
+
+@pytest.mark.parametrize("text, regions", [
+    ("conway:3 2", 2), ("conway:3 2 2", 3), ("pretzel:3,3,3", 3), ("pretzel:3,3,4", 3),
+    ("conway:2 1 1 2", 4), ("montesinos:1/3,2/5,2/7", 5),
+])
+def test_twist_regions_of_standard_pictures(text, regions):
+    # Counted by hand on the standard pictures: a Conway (4-plat) form a1 … ak has one twist
+    # region per term; a pretzel form one per column; 2/5 = [2, 2] and 2/7 = [3, 2] as
+    # continued fractions give two regions each (1 + 2 + 2) *(common practice: counted on the
+    # standard pictures, J. H. Conway, "An enumeration of knots and links", 1970)*.
+    assert twist_count(twins(parse(text))) == regions
+
+
+@pytest.mark.parametrize("text", SAMPLES)
+def test_block_flypes_are_isotopies(text):
+    # A block flype is a product of flypes: the determinant and the Jones polynomial (up to
+    # the unit a component reversal brings) stay, and the result is reduced alternating.
+    d = parse(text)
+    det, v = determinant(d), _unit_free(jones_polynomial(d))
+    moved = [to_diagram(*st) for st in block_flypes(twins(d), [True] * len(d.pd))]
+    for e in moved[:6]:
+        check_reduced_prime_alternating(e)
+        assert determinant(e) == det and _unit_free(jones_polynomial(e)) == v
+    assert all(flype_code(e) == flype_code(d) for e in moved)
+
+
+def _random_pool(sizes, seeds, rng):
+    """Random diagrams plus a randomly flyped, relabelled copy of each (same class)."""
+    from pipeline.diagrams.families.alternating import random_diagram
+    pool = []
+    for n in sizes:
+        for seed in seeds:
+            d = random_diagram(n, seed=seed)
+            e = d
+            for _ in range(3):
+                nxt = list(flypes(e))
+                if nxt:
+                    e = rng.choice(nxt)
+            pool += [d, _shuffled(e, rng), d.mirror()]
+    return pool
+
+
+def _check_fast_against_orbit(pool):
+    fast = [flype_codes(d) for d in pool]
+    slow = [flype_codes_by_orbit(d) for d in pool]
+    for a, b in zip(fast, slow):
+        assert a == b  # the same member is chosen, so the same text
+    # hence the same partition: equal fast codes iff equal whole-orbit codes
+    for i in range(len(pool)):
+        for j in range(i):
+            assert (fast[i][0] == fast[j][0]) == (slow[i][0] == slow[j][0])
+
+
+def test_fast_code_equals_the_whole_orbit_search_on_random_diagrams():
+    rng = random.Random(5)
+    pool = _random_pool(range(5, 13), range(6), rng)
+    pool += [parse(t) for t in SAMPLES]
+    _check_fast_against_orbit(pool)
+
+
+@pytest.mark.slow
+def test_fast_code_equals_the_whole_orbit_search_on_larger_random_diagrams():
+    rng = random.Random(6)
+    _check_fast_against_orbit(_random_pool(range(13, 16), range(6, 10), rng))
+
+
+def test_fast_code_equals_the_whole_orbit_search_on_two_bridge_chains():
+    for text in ["conway:3 2 2 3 2", "conway:2 2 2 2 2 2", "conway:2 1 1 2 2", "conway:3 1 1 1 3"]:
+        d = parse(text)
+        assert flype_code(d) == flype_code_by_orbit(d), text

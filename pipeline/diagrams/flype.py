@@ -16,15 +16,28 @@ finite sequence of flypes (and isotopies of S²).  Hence the *flype class* of a
 reduced prime alternating diagram is a complete invariant of the link type, and
 
 ``flype_code(D)`` = :func:`pipeline.diagrams.canonical.canonical_text` of the orbit
-member whose alternating map code (:func:`pipeline.diagrams.shadow.alternating_codes`)
-is the smallest
+member with the fewest twist regions (maximal chains of bigons) and, among those, the
+smallest alternating map code (:func:`pipeline.diagrams.shadow.alternating_codes`)
 
 is a normal form: equal codes iff the same link.  ``canonical_text`` already
 identifies relabelling, sphere isotopy, turning the diagram over (a rotation by π of
 3-space) and reversal of any components, so the code names the *unoriented* link
 type (keys name unoriented types, DESIGN.md); the mirror image is not identified.
-The mirror's code is computed from the mirrored orbit (the mirror of a flype is a
+The mirror's code is computed from the mirrored members (the mirror of a flype is a
 flype), and a type is amphichiral iff both codes agree.
+
+Fast route and proof status
+---------------------------
+The members with the fewest twist regions are those in which every flype circuit's
+crossings are gathered in one twist region (:mod:`pipeline.diagrams.flype_circuits`);
+they are found by a search over *block flypes* (a whole twist region flyped across a
+tangle) instead of the whole orbit.  Soundness (equal codes ⟹ same link) holds
+unconditionally: every member searched is reached by flypes.  Completeness (the
+search reaches every gathered member, so the same link ⟹ equal codes) rests on the
+flype-circuit structure of Menasco–Thistlethwaite (every circuit can be gathered, and
+walked from gap to gap, by block flypes); it is checked against the whole-orbit
+search (:func:`flype_code_by_orbit`, kept as the slow reference) on random diagrams
+in tests/test_flype.py, where both routes return the same text.
 
 How flypes are found
 --------------------
@@ -39,14 +52,15 @@ search that the circle cuts off exactly the four edges.  Flypes whose tangle is 
 crossing only slide a crossing along its own twist region (the same diagram) and
 are skipped.
 
-Orbit search
-------------
-The orbit is searched breadth-first with one alternating map code per diagram
+Orbit search (reference)
+------------------------
+The whole orbit is searched breadth-first with one alternating map code per diagram
 (:func:`pipeline.diagrams.shadow.alternating_codes`, on flat twin arrays).  Its size is
 the product of the number of positions of every flype circuit's crossings, which is
 small for most diagrams but grows fast for Montesinos-like ones with long horizontal
 twist regions among many tangles; the ``budget`` (orbit members) turns a hopeless
-search into ``BudgetExceeded('flype', budget)``, never a wrong answer.
+search into ``BudgetExceeded('flype', budget)``, never a wrong answer.  The
+gathered search has the same budget (members recorded over its restarts).
 
 References
 ----------
@@ -68,6 +82,7 @@ from typing import Iterator
 from ..errors import BudgetExceeded, KnotLedgerError
 from .canonical import canonical_text
 from .diagram import Diagram
+from .flype_circuits import gathered_states, twist_count
 from .shadow import ShadowFlype, alternating_codes, apply_shadow_flype, shadow_flypes, to_diagram, twins
 
 __all__ = [
@@ -81,12 +96,15 @@ __all__ = [
     "flype_orbit",
     "flype_code",
     "flype_codes",
+    "flype_code_by_orbit",
+    "flype_codes_by_orbit",
     "is_amphichiral",
     "diagram_of_code",
 ]
 
-#: Default budget: the most diagrams one flype orbit may have before giving up
-#: (about 5-30 ms per member at 40 crossings, so at most about a minute there).
+#: Default budget: the most members one flype search may record before giving up
+#: (gathered members for flype_code, about 5-7 ms each at 40 crossings; whole
+#: orbit for the reference routes).
 FLYPE_BUDGET = 2000
 
 
@@ -175,7 +193,7 @@ def diagram_of_code(code: str) -> Diagram:
 
 
 def _orbit_states(diagram: Diagram, budget: int) -> dict:
-    """{code0: (twins, over)} over the flype orbit (codes from :mod:`.shadow`)."""
+    """{code0: (twins, over)} over the whole flype orbit (the slow reference search)."""
     check_reduced_prime_alternating(diagram)
     tw = twins(diagram)
     over = [True] * len(diagram.pd)
@@ -194,8 +212,31 @@ def _orbit_states(diagram: Diagram, budget: int) -> dict:
     return states
 
 
+def _gathered(diagram: Diagram, budget: int) -> dict:
+    """{code0: (twins, over)} over the gathered members (fewest twist regions)."""
+    check_reduced_prime_alternating(diagram)
+    return gathered_states(twins(diagram), [True] * len(diagram.pd), budget)
+
+
+def _codes_of(states: dict) -> tuple[str, str]:
+    """(code, mirror code) of a set of members with equally many twist regions."""
+    k0 = min(states)
+    _, k1 = min((alternating_codes(*st)[1], k) for k, st in states.items())
+    tw1, over1 = states[k1]
+    return (canonical_text(to_diagram(*states[k0])),
+            canonical_text(to_diagram(tw1, [not o for o in over1])))
+
+
+def _fewest_regions(states: dict) -> dict:
+    low = min(twist_count(tw) for tw, _ in states.values())
+    return {k: st for k, st in states.items() if twist_count(st[0]) == low}
+
+
 def flype_orbit(diagram: Diagram, *, budget: int = FLYPE_BUDGET) -> list[str]:
     """Canonical texts of every diagram in the flype orbit, the class code first.
+
+    The whole orbit is searched (slow; sorted by number of twist regions, then
+    alternating map code).
 
     Raises
     ------
@@ -206,7 +247,8 @@ def flype_orbit(diagram: Diagram, *, budget: int = FLYPE_BUDGET) -> list[str]:
         diagrams.
     """
     states = _orbit_states(diagram, budget)
-    return [canonical_text(to_diagram(*states[k])) for k in sorted(states)]
+    keys = sorted(states, key=lambda k: (twist_count(states[k][0]), k))
+    return [canonical_text(to_diagram(*states[k])) for k in keys]
 
 
 def _order(code: str):
@@ -216,16 +258,18 @@ def _order(code: str):
 def flype_codes(diagram: Diagram, *, budget: int = FLYPE_BUDGET) -> tuple[str, str]:
     """(code of the flype class, code of the mirror image's flype class).
 
-    The code is the :func:`canonical_text` of the orbit member with the smallest
-    alternating map code (:func:`pipeline.diagrams.shadow.alternating_codes`); the
-    mirror's code is found from the same orbit with the crossing bit flipped.
+    The code is the :func:`canonical_text` of the orbit member with the fewest twist
+    regions and, among those, the smallest alternating map code
+    (:func:`pipeline.diagrams.shadow.alternating_codes`); the mirror's code is found
+    from the same members with the crossing bit flipped.  Only the gathered members
+    are searched (:func:`pipeline.diagrams.flype_circuits.gathered_states`).
     """
-    states = _orbit_states(diagram, budget)
-    k0 = min(states)
-    best1, k1 = min((alternating_codes(*st)[1], k) for k, st in states.items())
-    tw1, over1 = states[k1]
-    return (canonical_text(to_diagram(*states[k0])),
-            canonical_text(to_diagram(tw1, [not o for o in over1])))
+    return _codes_of(_gathered(diagram, budget))
+
+
+def flype_codes_by_orbit(diagram: Diagram, *, budget: int = FLYPE_BUDGET) -> tuple[str, str]:
+    """:func:`flype_codes` by the whole-orbit search (the slow reference route)."""
+    return _codes_of(_fewest_regions(_orbit_states(diagram, budget)))
 
 
 def flype_code(diagram: Diagram, *, budget: int = FLYPE_BUDGET) -> str:
@@ -236,13 +280,16 @@ def flype_code(diagram: Diagram, *, budget: int = FLYPE_BUDGET) -> str:
     diagram : Diagram
         Reduced, visibly prime, alternating, one piece.
     budget : int
-        Most orbit members searched.
+        Most orbit members recorded by the search (gathered members, over its restarts).
 
     Returns
     -------
     str
-        A ``pd:`` text; two such diagrams have the same code iff they are diagrams
-        of the same unoriented link (flyping theorem, Menasco–Thistlethwaite 1993).
+        A ``pd:`` text of a member of the class (the one with the fewest twist
+        regions, then the smallest alternating map code); two such diagrams have the
+        same code iff they are diagrams of the same unoriented link (flyping theorem,
+        Menasco–Thistlethwaite 1993; see the module notes for the proof status of the
+        gathered search).
 
     Examples
     --------
@@ -250,7 +297,13 @@ def flype_code(diagram: Diagram, *, budget: int = FLYPE_BUDGET) -> str:
     >>> flype_code(parse("conway:2 2")) == flype_code(parse("braid:1,-2,1,-2"))
     True
     """
-    states = _orbit_states(diagram, budget)
+    states = _gathered(diagram, budget)
+    return canonical_text(to_diagram(*states[min(states)]))
+
+
+def flype_code_by_orbit(diagram: Diagram, *, budget: int = FLYPE_BUDGET) -> str:
+    """:func:`flype_code` by the whole-orbit search (the slow reference route)."""
+    states = _fewest_regions(_orbit_states(diagram, budget))
     return canonical_text(to_diagram(*states[min(states)]))
 
 

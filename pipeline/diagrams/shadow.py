@@ -159,6 +159,9 @@ def _walk(tw: list[int], h: int, eps: int, best):
     return code if less else None
 
 
+_NONE = float("inf")  # above every start invariant
+
+
 def alternating_codes(tw: list[int], over: list[bool]) -> tuple[tuple[int, ...], tuple[int, ...]]:
     """(code0, code1): the codes of the alternating diagram and of its mirror image.
 
@@ -171,31 +174,36 @@ def alternating_codes(tw: list[int], over: list[bool]) -> tuple[tuple[int, ...],
     deg = [0] * (max(face) + 1)
     for f in face:
         deg[f] += 1
-    n = len(tw) >> 2
-    # rot[eps][4i + r]: the four corner degrees at crossing i from slot r in sense eps
-    ccw, cw = [0] * len(tw), [0] * len(tw)
-    for i in range(n):
-        d = [deg[face[4 * i + k]] for k in range(4)]  # corner (k-1, k) of crossing i
-        for r in range(4):
-            ccw[4 * i + r] = (((d[(r + 1) & 3] * 64 + d[(r + 2) & 3]) * 64 + d[(r + 3) & 3]) * 64
-                              + d[r])
-            cw[4 * i + r] = (((d[r] * 64 + d[(r - 1) & 3]) * 64 + d[(r - 2) & 3]) * 64
-                             + d[(r - 3) & 3])
-    cand: list[list] = [[], []]
-    for eps, rot in ((1, ccw), (-1, cw)):
-        for h in range(len(tw)):
-            inv = rot[h] * 16777216 + rot[tw[h]]
-            b = int(((h & 1) == 1) == over[h >> 2]) ^ (eps < 0)
-            cand[b].append((inv, h, eps))
+    dg = [deg[f] for f in face]  # dg[4i + k]: degree of corner (k-1, k) of crossing i
+    size = len(tw)
+    # rot[4i + r]: the four corner degrees at crossing i from slot r, ccw and cw
+    ccw, cw = [0] * size, [0] * size
+    for q in range(0, size, 4):
+        d0, d1, d2, d3 = dg[q], dg[q + 1], dg[q + 2], dg[q + 3]
+        ccw[q] = ((d1 * 64 + d2) * 64 + d3) * 64 + d0
+        ccw[q + 1] = ((d2 * 64 + d3) * 64 + d0) * 64 + d1
+        ccw[q + 2] = ((d3 * 64 + d0) * 64 + d1) * 64 + d2
+        ccw[q + 3] = ((d0 * 64 + d1) * 64 + d2) * 64 + d3
+        cw[q] = ((d0 * 64 + d3) * 64 + d2) * 64 + d1
+        cw[q + 1] = ((d1 * 64 + d0) * 64 + d3) * 64 + d2
+        cw[q + 2] = ((d2 * 64 + d1) * 64 + d0) * 64 + d3
+        cw[q + 3] = ((d3 * 64 + d2) * 64 + d1) * 64 + d0
+    # bit of a start (h, eps): (slot h over) XOR (eps reflected)
+    par = [((h & 1) == 1) == over[h >> 2] for h in range(size)]
+    inv_ccw = [ccw[h] * 16777216 + ccw[tw[h]] for h in range(size)]
+    inv_cw = [cw[h] * 16777216 + cw[tw[h]] for h in range(size)]
     out = []
     for b in (0, 1):
-        low = min(c[0] for c in cand[b])
+        want = b == 1  # ccw starts with par == want, cw starts with par != want
+        low = min(min((inv_ccw[h] for h in range(size) if par[h] == want), default=_NONE),
+                  min((inv_cw[h] for h in range(size) if par[h] != want), default=_NONE))
         best = None
-        for inv, h, eps in cand[b]:
-            if inv == low:
-                code = _walk(tw, h, eps, best)
-                if code is not None:
-                    best = code
+        for eps, inv, sel in ((1, inv_ccw, want), (-1, inv_cw, not want)):
+            for h in range(size):
+                if par[h] == sel and inv[h] == low:
+                    code = _walk(tw, h, eps, best)
+                    if code is not None:
+                        best = code
         out.append(tuple(best))
     return out[0], out[1]
 
@@ -239,8 +247,9 @@ def _tangle(tw: list[int], c: int, s: int, cut: set[int]) -> frozenset | None:
     return frozenset(inside) if leaving == 4 else None
 
 
-def shadow_flypes(tw: list[int]) -> Iterator[ShadowFlype]:
-    """Every flype whose tangle has at least two crossings and leaves two outside."""
+def shadow_flypes(tw: list[int], *, only: int | None = None) -> Iterator[ShadowFlype]:
+    """Every flype whose tangle has at least two crossings and leaves two outside
+    (only those at crossing ``only`` when given)."""
     face = faces(tw)
     adj: dict[int, dict[int, list[int]]] = {}
     for h, g in enumerate(tw):
@@ -250,7 +259,7 @@ def shadow_flypes(tw: list[int]) -> Iterator[ShadowFlype]:
             if e != f:
                 adj.setdefault(e, {}).setdefault(f, []).append(h)
     n = len(tw) // 4
-    for c in range(n):
+    for c in range(n) if only is None else (only,):
         c_edges = {min(h, tw[h]) for h in range(4 * c, 4 * c + 4)}
         for s in range(4):
             f0, f1 = face[4 * c + (s + 1) % 4], face[4 * c + (s + 2) % 4]

@@ -3,10 +3,13 @@
 1. ``alternating.codes(n)`` (prime alternating knots, n crossings) for n = 3 … N, each n
    in a fresh subprocess (so the lower levels are rebuilt and counted), wall time and
    peak resident memory (ru_maxrss of the child).
-2. ``flype_code`` on random reduced prime alternating diagrams of 20, 30, 40 crossings
-   (``alternating.random_diagram``, 10 seeds each): orbit size, median and worst time.
-3. ``flype_code`` on a few structured 40-crossing diagrams with long twist regions
-   (two-bridge, pretzel), where the orbit is large, with the default budget.
+2. ``flype_codes`` on random reduced prime alternating diagrams of 20, 30, 40 crossings
+   (``alternating.random_diagram``, 10 seeds each), by the fast route (members with the
+   fewest twist regions, block flypes) and by the whole-orbit reference
+   (``flype_codes_by_orbit``) in the same run: sizes searched, median and worst time,
+   and that both return the same codes.
+3. The same on structured diagrams with long twist regions (two-bridge chain, pretzel,
+   Montesinos).
 
 Usage::
 
@@ -25,12 +28,10 @@ import time
 
 from pipeline import parse
 from pipeline.diagrams.families import alternating
-from pipeline.diagrams.canonical import canonical_text
-from pipeline.diagrams.flype import _orbit_states, flype_code
-from pipeline.diagrams.shadow import to_diagram
+from pipeline.diagrams.flype import _codes_of, _fewest_regions, _gathered, _orbit_states
 from pipeline.errors import BudgetExceeded
 
-BUDGET = 1000  # orbit members for the structured diagrams (the default is FLYPE_BUDGET)
+BUDGET = 1000  # members searched per route (the default is FLYPE_BUDGET)
 STRUCTURED = ["conway:" + " ".join(["3", "2", "2"] * 6) + " 4", "pretzel:5,5,5,5,5,5,5,5",
               "montesinos:3/10,5/13,4/11,2/7"]
 
@@ -49,6 +50,25 @@ def enumeration_row(n: int):
     out = q.get()
     p.join()
     return out
+
+
+def _with_codes(states, pick):
+    """(number of members searched, (code, mirror code))."""
+    return len(states), _codes_of(pick(states))
+
+
+def _timed(fn):
+    """(result of fn or 'over budget', milliseconds)."""
+    t0 = time.perf_counter()
+    try:
+        res = fn()
+    except BudgetExceeded:
+        res = "over budget"
+    return res, 1000 * (time.perf_counter() - t0)
+
+
+def _size(res) -> str:
+    return res if isinstance(res, str) else str(res[0])
 
 
 def main(argv=None) -> int:
@@ -71,39 +91,32 @@ def main(argv=None) -> int:
         print(lines[-1], flush=True)
     lines += ["", f"Total 3…{args.max_n}: {total:.1f} s (each n from scratch; one process "
               f"building 3…{args.max_n} in turn reuses the levels and takes about the last row's time).", ""]
-    lines += ["## Flype-class code of random reduced prime alternating diagrams", "",
-              "`flype_code` = breadth-first flype orbit with one alternating map code per member.", "",
-              f"Budget {BUDGET} orbit members; sizes over the diagrams within budget.", "",
-              "| crossings | seeds | orbit sizes (min/median/max) | over budget | median ms | worst ms |",
-              "|---:|---:|---|---:|---:|---:|"]
-    for n in (20, 30, 40):
-        times, sizes, over = [], [], 0
-        for seed in range(10):
-            d = alternating.random_diagram(n, seed=seed)
-            t0 = time.perf_counter()
-            try:
-                states = _orbit_states(d, BUDGET)
-                canonical_text(to_diagram(*states[min(states)]))  # = flype_code(d)
-                sizes.append(len(states))
-            except BudgetExceeded:
-                over += 1
-            times.append(1000 * (time.perf_counter() - t0))
-        sizes = sizes or [0]
-        lines.append(f"| {n} | 10 | {min(sizes)}/{int(statistics.median(sizes))}/{max(sizes)} | {over} | "
-                     f"{statistics.median(times):.0f} | {max(times):.0f} |")
+    lines += ["## Flype-class code: fast route against the whole-orbit reference", "",
+              "`fast` = `flype_codes` (search of the members with the fewest twist regions by "
+              "block flypes); `orbit` = `flype_codes_by_orbit` (breadth-first search of the whole "
+              f"orbit). Budget {BUDGET} members for each; `same` = both returned the same two codes "
+              "(— when the reference is over budget).", "",
+              "| diagram | crossings | searched fast / orbit | fast ms | orbit ms | orbit / fast | same |",
+              "|---|---:|---|---:|---:|---:|:-:|"]
+    ratios = {}
+    cases = [(f"random {n}, seed {s}", alternating.random_diagram(n, seed=s), n)
+             for n in (20, 30, 40) for s in range(10)]
+    cases += [(f"`{t}`", parse(t), "structured") for t in STRUCTURED]
+    for name, d, group in cases:
+        fast, tf = _timed(lambda: _with_codes(_gathered(d, BUDGET), lambda st: st))
+        slow, ts = _timed(lambda: _with_codes(_orbit_states(d, BUDGET), _fewest_regions))
+        same = "—" if isinstance(slow, str) or isinstance(fast, str) else \
+            ("yes" if fast[1] == slow[1] else "NO")
+        ratio = ts / tf
+        ratios.setdefault(group, []).append((tf, ts, ratio))
+        lines.append(f"| {name} | {d.n_crossings} | {_size(fast)} / {_size(slow)} | {tf:.0f} | {ts:.0f} | "
+                     f"{ratio:.1f} | {same} |")
         print(lines[-1], flush=True)
-    lines += ["", "## Structured 40-crossing diagrams (long twist regions)", "",
-              f"Budget {BUDGET} orbit members.", "", "| diagram | crossings | result | seconds |", "|---|---:|---|---:|"]
-    for text in STRUCTURED:
-        d = parse(text)
-        t0 = time.perf_counter()
-        try:
-            flype_code(d, budget=BUDGET)
-            res = "code"
-        except BudgetExceeded as e:
-            res = str(e)
-        lines.append(f"| `{text}` | {d.n_crossings} | {res} | {time.perf_counter() - t0:.1f} |")
-        print(lines[-1], flush=True)
+    lines += ["", "| group | median fast ms | worst fast ms | median orbit ms | median ratio |",
+              "|---|---:|---:|---:|---:|"]
+    for group, rows in ratios.items():
+        lines.append(f"| {group} | {statistics.median(r[0] for r in rows):.0f} | {max(r[0] for r in rows):.0f} | "
+                     f"{statistics.median(r[1] for r in rows):.0f} | {statistics.median(r[2] for r in rows):.1f} |")
     lines.append("")
     with open(args.out, "w") as fh:
         fh.write("\n".join(lines))

@@ -63,6 +63,7 @@ from ...errors import NotationError
 from ..canonical import canonical_text
 from ..diagram import Diagram
 from ..flype import _order, diagram_of_code
+from ..flype_circuits import twist_count
 from ..shadow import (alternating_codes, alternating_over, apply_shadow_flype, extensions,
                       n_components, prime_reduced, shadow_flypes, to_diagram, twins)
 
@@ -110,7 +111,8 @@ def _classes(shadows: list[list[int]]) -> list[str]:
     """Flype classes up to mirror of the alternating diagrams on ``shadows``.
 
     Returns the code of each class: the canonical text of the alternating diagram (or
-    its mirror) whose alternating map code is the smallest in the class.
+    its mirror) with the fewest twist regions and then the smallest alternating map
+    code in the class (the rule of :func:`pipeline.diagrams.flype.flype_code`).
     """
     keys = {}
     best = {}
@@ -119,7 +121,8 @@ def _classes(shadows: list[list[int]]) -> list[str]:
         c0, c1 = alternating_codes(tw, over)
         k = min(c0, c1)
         keys[k] = (tw, over)
-        best[k] = (c0, False) if c0 <= c1 else (c1, True)
+        tc = twist_count(tw)  # the class code: fewest twist regions first (flype_code)
+        best[k] = ((tc, c0), False) if c0 <= c1 else ((tc, c1), True)
     parent = {k: k for k in keys}
 
     def find(k):
