@@ -92,8 +92,8 @@ def main(argv=None) -> int:
     lines += ["", f"Total 3…{args.max_n}: {total:.1f} s (each n from scratch; one process "
               f"building 3…{args.max_n} in turn reuses the levels and takes about the last row's time).", ""]
     lines += ["## Flype-class code: fast route against the whole-orbit reference", "",
-              "`fast` = `flype_codes` (search of the members with the fewest twist regions by "
-              "block flypes); `orbit` = `flype_codes_by_orbit` (breadth-first search of the whole "
+              "`fast` = `flype_codes(route=\"gathered\")` (search of the members with the fewest twist regions by "
+              "block flypes); `orbit` = `flype_codes` (the default, used for knot keys: breadth-first search of the whole "
               f"orbit). Budget {BUDGET} members for each; `same` = both returned the same two codes "
               "(— when the reference is over budget).", "",
               "| diagram | crossings | searched fast / orbit | fast ms | orbit ms | orbit / fast | same |",
