@@ -28,13 +28,12 @@ V − Vᵀ is then the intersection form of the surface (unimodular for a knot).
 
 from __future__ import annotations
 
-import re
 from typing import Optional, Sequence
 
 from flint import fmpq, fmpq_poly, fmpz_mat, fmpz_poly
 
 from ..diagrams.families import torus
-from ..diagrams.notation import parse, split_notation
+from ..diagrams.notation import Notation, parse_notation
 from ..errors import KnotLedgerError, NotationError
 from .poly import Laurent
 
@@ -95,23 +94,27 @@ def braid_seifert_matrix(word: Sequence[int], *, strands: Optional[int] = None) 
     return V
 
 
-def braid_of_notation(text: str) -> Optional[tuple[list[int], int]]:
+def braid_of_notation(text: "str | Notation") -> Optional[tuple[list[int], int]]:
     """(word, strands) of a ``braid:`` or ``torus:`` row (torus on min(|p|, |q|) strands,
-    T(p,q) = T(q,p), Rolfsen ch. 3); None for any other kind.  Validates the notation."""
-    kind, args = split_notation(text)
-    if kind not in ("braid", "torus"):
-        return None
-    parse(text)  # the notation's own one-line errors
-    vals = [int(x) for x in re.split(r"[,\s]+", args.strip()) if x]
-    if kind == "braid":
+    T(p,q) = T(q,p), Rolfsen ch. 3); None for any other kind.
+
+    ``text`` is the notation string (validated by
+    :func:`~pipeline.diagrams.notation.parse_notation`, the one notation parser) or an
+    already parsed :class:`~pipeline.diagrams.notation.Notation`.
+    """
+    nota = text if isinstance(text, Notation) else parse_notation(text)
+    if nota.kind == "braid":
+        vals = [int(g) for g in nota.args]
         return vals, max(abs(g) for g in vals) + 1
-    p, q = vals[0], vals[1]
+    if nota.kind != "torus":
+        return None
+    p, q = (int(x) for x in nota.args)
     if abs(q) < abs(p):
         p, q = q, p
     return torus.word(p, q), abs(p)
 
 
-def seifert_matrix_of_notation(text: str) -> Optional[list[list[int]]]:
+def seifert_matrix_of_notation(text: "str | Notation") -> Optional[list[list[int]]]:
     """Seifert matrix of a ``braid:``/``torus:`` row whose closed-braid surface is connected,
     else None (other kinds, or a generator missing: then the link is split or the braid
     can be shortened)."""

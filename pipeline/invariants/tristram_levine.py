@@ -331,3 +331,15 @@ def tristram_levine(V: Sequence[Sequence[int]]) -> SignatureFunction:
             s = _rational_s_between(u_lo, u_lo + 1 + u_lo)  # any point past the last jump
         values.append(_hermitian_signature(S, A, s))
     return SignatureFunction(tuple(jumps), tuple(values), at_minus_one)
+
+
+# ---- minimal signature_function: braid/torus rows only (the general version replaces it)
+def signature_function(diagram, *, notation=None) -> Optional[SignatureFunction]:
+    """σ_ω of a ``braid:``/``torus:`` row from its closed-braid Seifert matrix
+    (:func:`~pipeline.invariants.seifert.seifert_matrix_of_notation`); None otherwise."""
+    from .seifert import seifert_matrix_of_notation
+    V = None if notation is None else seifert_matrix_of_notation(notation)
+    return None if V is None else tristram_levine(V)
+
+
+__all__ += ["signature_function"]
