@@ -49,7 +49,11 @@ def census(tmp_path_factory):
     tmp = tmp_path_factory.mktemp("strength")
     (tmp / "census.toml").write_text(SPEC)
     run_census(load_spec(tmp / "census.toml"), tmp / "out", jobs=1, quiet=True)
+    CENSUS_DIR.append(tmp / "out")
     return read_table(tmp / "out", "diagrams").to_pylist()
+
+
+CENSUS_DIR: list[Path] = []
 
 
 def test_new_columns_filled_and_every_strength_check_passes(census):
@@ -158,3 +162,16 @@ def test_chirality_by_homfly_where_jones_and_signature_fail():
 def test_seifert_circles_of_closed_braids_are_the_strands():
     for text, n in (("braid:1,1,1", 2), ("braid:1,-2,1,-2", 3), ("braid:1,2,3,1,2,3", 4)):
         assert seifert_circle_count(parse(text)) == n
+
+
+def test_claims_see_the_new_columns(census):
+    from pipeline.explore.claims import check_claim
+    out = CENSUS_DIR[-1]
+    # Lee 2005 / Rasmussen 2010: s = −σ for alternating knots (every two-bridge knot)
+    r = check_claim(out, "rasmussen_s == -signature", family="two_bridge", where="components == 1")
+    assert r.selected > 40 and r.held == r.selected and not r.n_counterexamples
+    # a false claim is caught: s = σ fails on every two-bridge knot with σ ≠ 0
+    r = check_claim(out, "rasmussen_s == signature", family="two_bridge", where="components == 1")
+    assert r.n_counterexamples > 0
+    r = check_claim(out, "kh_width >= 2", family="torus")
+    assert r.held == r.selected > 0
