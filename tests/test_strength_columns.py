@@ -175,3 +175,23 @@ def test_claims_see_the_new_columns(census):
     assert r.n_counterexamples > 0
     r = check_claim(out, "kh_width >= 2", family="torus")
     assert r.held == r.selected > 0
+
+
+def test_distinctness_note_names_the_separating_invariant():
+    """Rows built by hand: the same classical values and HOMFLY-PT, different Khovanov ranks
+    over Q, so the note names khovanov (different invariants prove different types)."""
+    from pipeline.identify.fingerprint import base_fingerprint, fingerprint
+    from pipeline.identify.knots_table import add_notes
+    base = {"components": 1, "determinant": 3, "invariant_factors": [3], "alexander": [[-1, 1], [0, -1], [1, 1]],
+            "jones": [[1, 1], [3, 1], [4, -1]], "signature": -2, "homfly": [[2, 0, 2], [2, 2, 1], [4, 0, -1]],
+            "khovanov_f2": [[0, 1, 1]]}
+    a = {**base, "khovanov": [[0, 1, 1], [0, 3, 1], [2, 5, 1], [3, 9, 1]]}
+    b = {**base, "khovanov": [[0, 1, 1], [0, 3, 1], [2, 5, 1], [3, 9, 2]]}
+    assert base_fingerprint(a) == base_fingerprint(b) and fingerprint(a) != fingerprint(b)
+    out = [{"knot_key": k, "proof": "fingerprint only", "_fps": {fingerprint(r)}, "_dids": set(),
+            "_base_fps": {base_fingerprint(r)}, "_example": r} for k, r in (("fp:a", a), ("fp:b", b))]
+    add_notes(out)
+    assert out[0]["fingerprint_shared_with"] == []
+    assert out[0]["distinctness_note"] == ("distinct from fp:b by khovanov (same determinant, Alexander, "
+                                           "Jones and signature)")
+    assert "_example" not in out[0] and "_base_fps" not in out[1]
