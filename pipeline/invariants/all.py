@@ -28,7 +28,7 @@ ALGORITHM_VERSIONS = {
     "alexander": "1",
     "jones": "1",
     "signature": "1",
-    "checks": "1",
+    "checks": "2",  # strength: HOMFLY-PT / Khovanov / s / σ_ω relations
     "chirality": "2",  # strength: chiral (homfly), chiral (khovanov)
     # ---- strength (issue 12)
     "homfly": "1",
@@ -36,7 +36,6 @@ ALGORITHM_VERSIONS = {
     "tristram_levine": "1",
     # ---- end strength
 }
-ALGORITHM_VERSIONS["checks"] = "2"  # strength: HOMFLY-PT / Khovanov / s / σ_ω relations
 
 DEFAULT_MIN_COLORS_BUDGET = 10_000
 # ---- strength (issue 12): default per-diagram budgets (census/spec.py documents them)
