@@ -195,3 +195,12 @@ def test_distinctness_note_names_the_separating_invariant():
     assert out[0]["distinctness_note"] == ("distinct from fp:b by khovanov (same determinant, Alexander, "
                                            "Jones and signature)")
     assert "_example" not in out[0] and "_base_fps" not in out[1]
+
+
+def test_fit_finds_s_of_positive_torus_knots(census):
+    """s(T(p, q)) = (p − 1)(q − 1) for positive torus knots (Rasmussen 2010): on the rows
+    with p = 3, q > 0 that are knots, the fit is 2q − 2."""
+    import sympy
+    from pipeline.explore.fit import fit_family
+    names, (c,), _ = fit_family(CENSUS_DIR[-1], "torus", "rasmussen_s", where="p == 3 and q > 1 and components == 1")
+    assert c.exact and sympy.expand(c.fit.expr() - (2 * sympy.Symbol("q") - 2)) == 0
