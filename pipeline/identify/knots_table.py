@@ -109,8 +109,9 @@ def build_knots_table(rows: list[dict]) -> list[dict]:
             "crossing_number_source": src,
             "_fps": {m.get("fingerprint") for m in metas if m.get("fingerprint")},
             "_dids": did,
-            # strength (issue 12): the older fingerprint data and a row to compare
-            "_base_fps": {base_fingerprint(m) for m in members},
+            # strength (issue 12): the older fingerprint data (knots: the new invariants
+            # are in knot fingerprints only) and a row to compare
+            "_base_fps": {base_fingerprint(m) for m in members if m.get("components") == 1},
             "_example": members[0],
         })
     add_notes(out)
