@@ -2,6 +2,8 @@
 
 from __future__ import annotations
 
+import json
+
 import pytest
 
 from pipeline import parse
@@ -31,8 +33,11 @@ def test_trefoil_row_values():
 
 
 def test_budget_overrun_keeps_the_rest_of_the_row():
-    row = compute_all(parse("torus:5,12"), jones_budget=3)
-    assert row["jones"] is None
+    # HOMFLY-PT and Khovanov skipped by budget 0 as well (48 crossings, no notation: the
+    # skein route would be slow); tests/test_strength_columns.py covers their budgets
+    row = compute_all(parse("torus:5,12"), jones_budget=3, homfly_budget=0, khovanov_budget=0)
+    assert row["jones"] is None and row["homfly"] is None and row["khovanov"] is None
+    assert "skipped: homfly budget 0" in row["status"] and "skipped: khovanov budget 0" in row["status"]
     assert "skipped: jones budget 3" in row["status"]
     assert row["determinant"] == 5    # T(5,12): q even, so det is the odd parameter 5 (Rolfsen ch. 7)
 
@@ -71,16 +76,26 @@ def test_typed_row_is_frozen_and_to_record_is_the_stored_dict():
               "invariant_factors": [str(f) for f in rec["invariant_factors"]],
               "alexander": rec["alexander"].to_json(), "conway": None,
               "jones": __import__("json").dumps(rec["jones"].to_json()),
-              "signature": rec["signature"], "nullity": rec["nullity"]}
+              "signature": rec["signature"], "nullity": rec["nullity"],
+              # strength (issue 12): JSON text as the census stores it
+              "homfly": json.dumps(rec["homfly"].to_json()), "khovanov": json.dumps(rec["khovanov"]),
+              "khovanov_f2": rec["khovanov_f2"], "khovanov_reduced": rec["khovanov_reduced"],
+              "rasmussen_s": rec["rasmussen_s"], "tristram_levine": rec["tristram_levine"]}
     back = InvariantValues.from_record(stored)
     assert back == dataclasses.replace(row.values(), conway=None)
 
 
 def test_every_check_of_a_full_row_runs_from_the_typed_values():
     # a typed row has every input field, so no check is dropped by a missing key:
-    # a knot row with all invariants computed runs every relation of checks.CHECK_NAMES
+    # a knot row with all invariants computed runs every relation of checks.ALL_CHECK_NAMES
     from pipeline.invariants.all import compute_row
-    from pipeline.invariants.checks import CHECK_NAMES
+    from pipeline.invariants.checks import ALL_CHECK_NAMES as CHECK_NAMES
 
     row = compute_row(parse("conway:3 2"))   # 5_2, alternating
-    assert set(row.checks) == set(CHECK_NAMES) and all(row.checks.values())
+    expected = set(CHECK_NAMES)
+    if row.tristram_levine is None:  # σ_ω is computed for braid/torus rows only so far
+        expected.discard("tristram_levine_at_minus_one")
+    assert set(row.checks) == expected and all(row.checks.values())
+    row = compute_row(parse("torus:2,5"), notation="torus:2,5")  # σ_ω from the braid surface
+    assert set(row.checks) == set(CHECK_NAMES) \
+        and all(row.checks.values())

@@ -208,6 +208,13 @@ def test_mutants_share_fingerprints_but_not_keys():
                "determinant": determinant(d), "invariant_factors": list(invariant_factors(d)),
                "jones": jones_polynomial(d), "alexander": alexander_polynomial(d),
                "signature": signature(d)}
+        # knot fingerprints also carry HOMFLY-PT and Kh ranks (Q, F₂); mutants share them
+        # (HOMFLY-PT: mutation invariant by the skein relation; Kh over F₂: Bloom 2010,
+        # Wehrli 2010)
+        from pipeline.invariants.homfly import homfly_polynomial
+        from pipeline.invariants.khovanov import khovanov_data
+        kh = khovanov_data(d, budget=20_000)
+        row.update(homfly=homfly_polynomial(d, notation=n), khovanov=kh.khovanov, khovanov_f2=kh.khovanov_f2)
         row.update(knot_key(row))
         rows.append(row)
     assert rows[0]["knot_key"] != rows[1]["knot_key"]

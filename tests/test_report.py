@@ -163,3 +163,19 @@ def test_report_writes_the_explorer_page_with_every_knot_type(report_dir):
     assert len(data["plots"]) == len(re.findall(r"\]\(plots/", (report_dir / "report.md").read_text()))
     assert sorted(r[0] for r in data["knots"]) == sorted(open_census(report_dir).knots["knot_key"])
     assert "<script src=" not in page and "<link " not in page  # self-contained
+
+
+# ---- strength (issue 12): Khovanov width and the chirality share per invariant
+def test_report_has_kh_width_and_chirality_share_matching_the_table(report_dir):
+    from pipeline.census.reader import open_census
+    text = (report_dir / "report.md").read_text()
+    assert "kh_width.png" in text and "chiral_by_invariant.png" in text
+    assert (report_dir / "plots" / "kh_width.png").stat().st_size > 0
+    d = open_census(report_dir).diagrams
+    # the width table counts every row with a computed width, per family
+    for fam, grp in d.groupby("family"):
+        widths = grp["kh_width"].dropna().astype(int).value_counts()
+        for w, n in widths.items():
+            assert f"width {w}" in text
+        share = (grp["chirality"] == "chiral (jones)").sum() / len(grp)
+        assert f"{share:.3f}" in text

@@ -255,7 +255,8 @@ def _locked_run(spec: Spec, out: Path, *, jobs: int, resume: bool,
     from .store import CensusStore
     opts = {"max_modulus": spec.max_modulus, "jones_budget": spec.jones_budget,
             "min_colors_budget": spec.min_colors_budget, "timeout": spec.timeout,
-            "simplify_budget": spec.simplify_budget, "flype_budget": spec.flype_budget}
+            "simplify_budget": spec.simplify_budget, "flype_budget": spec.flype_budget,
+            "homfly_budget": spec.homfly_budget, "khovanov_budget": spec.khovanov_budget}
     if resume or shard:  # budgets given on the command line at the start stay in force
         opts.update(_started_options(out))
     for key, val in (overrides or {}).items():

@@ -9,7 +9,8 @@ Exactness (README.md): an integer that can outgrow int64 (determinants, invarian
 factors, colouring counts) is stored twice — an int64 column that SQL can filter on
 (null when the value does not fit) beside a decimal text column that is always exact.
 Polynomials are stored as the contract JSON text (``[[exponent, coefficient], ...]``)
-beside a list of ``{e2: doubled exponent, c: coefficient as decimal text}`` structs.
+beside a list of ``{e2: doubled exponent, c: coefficient as decimal text}`` structs;
+HOMFLY-PT likewise (``[[v, z, coefficient], ...]`` beside ``{v, z, c}`` structs).
 """
 
 from __future__ import annotations
@@ -17,12 +18,12 @@ from __future__ import annotations
 import pyarrow as pa
 
 __all__ = [
-    "SCHEMA_VERSION", "TERM", "POLYNOMIAL_TERMS", "DIAGRAMS", "COLORINGS", "KNOTS",
+    "SCHEMA_VERSION", "TERM", "POLYNOMIAL_TERMS", "HOMFLY_TERM", "HOMFLY_TERMS", "DIAGRAMS", "COLORINGS", "KNOTS",
     "REJECTS", "SCHEMAS", "TABLES", "INT64_MIN", "INT64_MAX",
 ]
 
 #: Bumped whenever a column is added, removed or changes type.
-SCHEMA_VERSION = "2"   # 2: simplified_*, prime*, flype_code (issue 11)
+SCHEMA_VERSION = "2"   # 2: simplified_*, prime*, flype_code (issue 11); homfly, khovanov, ..., tristram_levine (issue 12)
 
 INT64_MIN, INT64_MAX = -(2 ** 63), 2 ** 63 - 1
 
@@ -30,6 +31,13 @@ INT64_MIN, INT64_MAX = -(2 ** 63), 2 ** 63 - 1
 TERM = pa.struct([pa.field("e2", pa.int32(), nullable=False),
                   pa.field("c", pa.string(), nullable=False)])
 POLYNOMIAL_TERMS = pa.list_(TERM)
+# ---- strength (issue 12)
+#: One term of the HOMFLY-PT polynomial: v- and z-exponents and the exact coefficient.
+HOMFLY_TERM = pa.struct([pa.field("v", pa.int32(), nullable=False),
+                         pa.field("z", pa.int32(), nullable=False),
+                         pa.field("c", pa.string(), nullable=False)])
+HOMFLY_TERMS = pa.list_(HOMFLY_TERM)
+# ---- end strength
 
 
 def _f(name: str, typ: pa.DataType, nullable: bool = True) -> pa.Field:
@@ -63,6 +71,16 @@ DIAGRAMS = pa.schema([
     _f("conway_terms", POLYNOMIAL_TERMS),
     _f("jones", pa.string()),
     _f("jones_terms", POLYNOMIAL_TERMS),
+    # ---- strength (issue 12)
+    _f("homfly", pa.string()),
+    _f("homfly_terms", HOMFLY_TERMS),
+    _f("khovanov", pa.string()),
+    _f("khovanov_f2", pa.string()),
+    _f("khovanov_reduced", pa.string()),
+    _f("rasmussen_s", pa.int32()),
+    _f("kh_width", pa.int32()),
+    _f("tristram_levine", pa.string()),
+    # ---- end strength
     _f("chirality", pa.string()),
     _f("chirality_reason", pa.string()),
     _f("knot_key", pa.string()),

@@ -8,6 +8,8 @@ A spec names families of diagrams and the census options (README.md, "Spec file"
     chunk_size = 256        # diagrams per chunk (part of the census identity)
     jones_budget = 200000   # optional per-diagram budgets (see invariants)
     min_colors_budget = 10000
+    homfly_budget = 20000   # HOMFLY-PT: diagrams expanded by the skein route (default 20000)
+    khovanov_budget = 20000 # Khovanov: objects of the tangle complex (default 20000)
     timeout = 600           # optional: seconds per chunk before its rows are given up
     knots_only = false      # default for every family
     simplify_budget = 200000  # optional: most Reidemeister moves when simplifying a row
@@ -72,9 +74,19 @@ __all__ = ["Spec", "Family", "WorkItem", "load_spec", "parse_spec", "iter_items"
 
 DEFAULT_CHUNK_SIZE = 256
 DEFAULT_MAX_MODULUS = 16
+# ---- strength (issue 12): per-diagram budgets of HOMFLY-PT and Khovanov homology.
+#: ``homfly_budget`` (default 20000): diagrams the HOMFLY-PT skein route may expand (and
+#: the bound on n!·length of the braid route); over it the row says
+#: ``skipped: homfly budget N``.  ``khovanov_budget`` (default 20000): objects the
+#: Khovanov tangle complex may have after any crossing; over it the row says
+#: ``skipped: khovanov budget N``.  0 skips the invariant on every row.
+from ..invariants.all import DEFAULT_HOMFLY_BUDGET, DEFAULT_KHOVANOV_BUDGET  # noqa: E402
+# ---- end strength
 CENSUS_KEYS = {"name": str, "max_modulus": int, "chunk_size": int, "jones_budget": int,
                "min_colors_budget": int, "timeout": (int, float), "knots_only": bool,
-               "description": str, "simplify_budget": int, "flype_budget": int}
+               "description": str, "simplify_budget": int, "flype_budget": int,
+               # strength (issue 12)
+               "homfly_budget": int, "khovanov_budget": int}
 COMMON_KEYS = {"kind", "knots_only", "name"}
 KIND_KEYS = {
     "torus": {"p", "q"},
@@ -113,6 +125,10 @@ class Spec:
     path: Optional[Path] = None
     simplify_budget: Optional[int] = None
     flype_budget: Optional[int] = None
+    # ---- strength (issue 12): 0 skips the invariant on every row
+    homfly_budget: Optional[int] = None
+    khovanov_budget: Optional[int] = None
+    # ---- end strength
 
     @property
     def sha256(self) -> str:
@@ -161,7 +177,8 @@ def parse_spec(text: str, *, base: str | Path = ".", path: Optional[Path] = None
     }
     for key, lo in (("max_modulus", 2), ("chunk_size", 1), ("jones_budget", 0),
                     ("min_colors_budget", 0), ("timeout", 0), ("simplify_budget", 0),
-                    ("flype_budget", 1)):
+                    ("flype_budget", 1),
+                    ("homfly_budget", 0), ("khovanov_budget", 0)):  # strength (issue 12)
         if key in census and census[key] < lo + (key == "timeout") * 1e-9:
             raise SpecError(f"{loc.at('census', 0, key)}: {key} = {census[key]} must be "
                             f"{'positive' if key == 'timeout' else f'at least {lo}'}")
@@ -176,7 +193,10 @@ def parse_spec(text: str, *, base: str | Path = ".", path: Optional[Path] = None
                 min_colors_budget=census.get("min_colors_budget"),
                 timeout=float(census["timeout"]) if "timeout" in census else None,
                 families=fams, text=text, path=path,
-                simplify_budget=census.get("simplify_budget"), flype_budget=census.get("flype_budget"))
+                simplify_budget=census.get("simplify_budget"), flype_budget=census.get("flype_budget"),
+                # strength (issue 12)
+                homfly_budget=census.get("homfly_budget", DEFAULT_HOMFLY_BUDGET),
+                khovanov_budget=census.get("khovanov_budget", DEFAULT_KHOVANOV_BUDGET))
 
 
 class _Locator:

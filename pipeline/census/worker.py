@@ -39,7 +39,10 @@ INT64_MIN, INT64_MAX = -(2 ** 63), 2 ** 63 - 1
 _CONSUMED = {"crossings", "components", "free_loops", "writhe", "alternating", "determinant",
              "invariant_factors", "colorings", "colorable_moduli", "witnesses", "min_colors",
              "alexander", "conway", "jones", "signature", "nullity", "chirality",
-             "chirality_reason", "checks", "checks_failed", "status", "timings"}
+             "chirality_reason", "checks", "checks_failed", "status", "timings",
+             # strength (issue 12)
+             "homfly", "khovanov", "khovanov_f2", "khovanov_reduced", "rasmussen_s", "kh_width",
+             "tristram_levine"}
 
 
 class ChunkTimeout(BaseException):
@@ -97,8 +100,11 @@ def _mirror_by_convention(notation: str) -> bool:
 
 def _invariants(d, opts: dict, notation: str) -> dict:
     from ..invariants.all import compute_all
+    from ..invariants.all import DEFAULT_HOMFLY_BUDGET, DEFAULT_KHOVANOV_BUDGET
     return compute_all(d, max_modulus=opts["max_modulus"], jones_budget=opts.get("jones_budget"),
-                       min_colors_budget=opts.get("min_colors_budget"), notation=notation)
+                       min_colors_budget=opts.get("min_colors_budget"), notation=notation,
+                       homfly_budget=opts.get("homfly_budget", DEFAULT_HOMFLY_BUDGET),
+                       khovanov_budget=opts.get("khovanov_budget", DEFAULT_KHOVANOV_BUDGET))
 
 
 def _fill(row: dict, inv: dict) -> list[dict]:
@@ -117,6 +123,7 @@ def _fill(row: dict, inv: dict) -> list[dict]:
         row[name] = None if v is None else int(v)
     for name in ("alexander", "conway", "jones"):
         row[name], row[f"{name}_terms"] = _poly(inv.get(name))
+    _fill_strength(row, inv)
     row["chirality"] = inv.get("chirality")
     row["chirality_reason"] = inv.get("chirality_reason")
     checks = inv.get("checks") or {}
@@ -144,6 +151,24 @@ _KEY_TEXT_COLUMNS = ("knot_key", "mirror_key", "knot_proof", "chirality", "chira
 _STRUCTURE_COLUMNS = ("simplified_crossings", "simplified_notation", "prime", "prime_reason",
                       "flype_code")
 # --- end: simplification / primality / flype columns ---
+
+
+# ---- strength (issue 12)
+def _fill_strength(row: dict, inv: dict) -> None:
+    """The HOMFLY-PT, Khovanov and Tristram–Levine columns (JSON text; None = not computed)."""
+    def text(v):
+        return None if v is None else json.dumps(v, separators=(",", ":"))
+
+    P = inv.get("homfly")
+    row["homfly"] = None if P is None else text(P.to_json())
+    row["homfly_terms"] = None if P is None else [{"v": int(a), "z": int(b), "c": str(int(c))}
+                                                  for (a, b), c in P.terms]
+    for name in ("khovanov", "khovanov_f2", "khovanov_reduced", "tristram_levine"):
+        row[name] = text(inv.get(name))
+    for name in ("rasmussen_s", "kh_width"):
+        v = inv.get(name)
+        row[name] = None if v is None else int(v)
+# ---- end strength
 
 
 def _knot_key(row: dict, inv: dict, d, opts: Optional[dict] = None) -> None:

@@ -7,7 +7,7 @@ Names are the family parameters from the ``params`` column (``p``, ``q``, ``p1``
 ``alpha``, ``beta``, ``t1``…; a parameter shadows a column of the same name) and the
 scalar/list columns of ``diagrams`` (``determinant``, ``crossings``, ``components``,
 ``writhe``, ``signature``, ``family``, ``chirality``, ``status``, ``factors`` =
-``invariant_factors`` as a list of ints, ...).  Integers are exact: a column with a
+``invariant_factors`` as a list of ints, ``rasmussen_s``, ``kh_width``, ...).  Integers are exact: a column with a
 ``*_text`` twin (``determinant_text``) is read from the text.  Row functions read the
 ``colorings`` table: ``colorable(n)`` (col_n > n), ``colorings(n)`` (col_n),
 ``min_colors(p)``; ``alexander_at(x)`` and ``jones_at(x)`` evaluate the stored

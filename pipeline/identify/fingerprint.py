@@ -10,6 +10,19 @@ reversed sublink K [1].  A complete fingerprint has the prefix ``fp:``; a row mi
 one of the invariants gets ``fp-partial:`` (it proves nothing against other rows).
 The key is the first 24 hex digits of the sha256 of the canonical JSON of the data.
 
+Knots also carry (issue 12) the HOMFLY-PT polynomial and the ranks of Khovanov homology
+over Q and over F₂, all invariants of the unoriented knot; the mirror fingerprint uses
+P(−v⁻¹, z) [2] and the ranks at (−i, −j) [3].  They are used for knots only: P and Kh
+of a link depend on the orientations of its components, and no orientation set of them
+is computed here, so link fingerprints keep the orientation-free data above.  A knot
+whose HOMFLY-PT or Khovanov computation was skipped by a budget gets ``fp-partial:``.
+:func:`base_fingerprint` is the fingerprint without these (what rows were keyed by
+before); :func:`separating_invariants` names the new invariants on which two rows with
+the same base fingerprint differ (the knots table's distinctness note).
+
+2. P. Freyd et al., Bull. AMS 12 (1985).
+3. M. Khovanov, Duke Math. J. 101 (2000); D. Bar-Natan, Algebr. Geom. Topol. 2 (2002).
+
 References
 ----------
 1. H. R. Morton, "The Jones polynomial for unoriented links", Quart. J. Math. Oxford
@@ -27,7 +40,11 @@ from ..invariants.linking import reversal_linkings
 from ..invariants.poly import Laurent
 from ..invariants.row import InvariantValues, _factor_tuple, _laurent
 
-__all__ = ["fingerprint", "mirror_fingerprint", "jones_orientation_set", "MAX_ORIENTATION_COMPONENTS"]
+__all__ = ["fingerprint", "mirror_fingerprint", "jones_orientation_set", "MAX_ORIENTATION_COMPONENTS",
+           "base_fingerprint", "separating_invariants", "STRENGTH_FINGERPRINT"]
+
+#: The issue-12 invariants in knot fingerprints, in the order a note names them.
+STRENGTH_FINGERPRINT = ("homfly", "khovanov", "khovanov_f2")
 
 MAX_ORIENTATION_COMPONENTS = 10
 def _poly(v: Any) -> Optional[list]:
@@ -58,8 +75,20 @@ def jones_orientation_set(diagram: Diagram, jones: Laurent) -> Optional[list[lis
     return sorted(json.loads(s) for s in out)
 
 
-def _fingerprint_data(row: dict, *, mirror: bool = False) -> tuple[dict, bool]:
-    """(data, complete) of the fingerprint."""
+def _strength_data(values: InvariantValues, *, mirror: bool) -> dict[str, Any]:
+    """HOMFLY-PT and Khovanov ranks of a knot as canonical JSON lists (None: not computed)."""
+    P = values.homfly
+    out: dict[str, Any] = {"homfly": None if P is None else (P.mirror() if mirror else P).to_json()}
+    for name in ("khovanov", "khovanov_f2"):
+        ranks = getattr(values, name)
+        if ranks is not None and mirror:
+            ranks = {(-i, -j): r for (i, j), r in ranks.items()}
+        out[name] = None if ranks is None else [[i, j, r] for (i, j), r in sorted(ranks.items()) if r]
+    return out
+
+
+def _fingerprint_data(row: dict, *, mirror: bool = False, strength: bool = True) -> tuple[dict, bool]:
+    """(data, complete) of the fingerprint (``strength``: with the issue-12 invariants)."""
     values = InvariantValues.from_record(row)      # the one reading of a (stored) row
     comps = values.components
     data: dict[str, Any] = {"components": comps, "determinant": values.determinant,
@@ -70,6 +99,8 @@ def _fingerprint_data(row: dict, *, mirror: bool = False) -> tuple[dict, bool]:
         data["alexander"] = _poly(values.alexander)
         data["jones"] = _invert(jones) if mirror else jones
         data["signature"] = None if sig is None else (-sig if mirror else sig)
+        if strength:
+            data.update(_strength_data(values, mirror=mirror))
     else:
         js = row.get("jones_orientations")
         d, jones = row.get("diagram"), values.jones
@@ -98,3 +129,21 @@ def fingerprint(row: dict) -> str:
 def mirror_fingerprint(row: dict) -> str:
     """Fingerprint of the mirror image, from the row's invariants."""
     return _hash(*_fingerprint_data(row, mirror=True))
+
+
+def base_fingerprint(row: dict) -> str:
+    """The fingerprint without HOMFLY-PT and Khovanov ranks (the data used before them)."""
+    return _hash(*_fingerprint_data(row, strength=False))
+
+
+def separating_invariants(a: dict, b: dict) -> list[str]:
+    """Names in :data:`STRENGTH_FINGERPRINT` computed on both knot rows and different.
+
+    Different values of an invariant prove that the two rows are different knot types
+    (or mirror images of different types, when compared with a mirror row).
+    """
+    va, vb = InvariantValues.from_record(a), InvariantValues.from_record(b)
+    if va.components != 1 or vb.components != 1:
+        return []
+    da, db = _strength_data(va, mirror=False), _strength_data(vb, mirror=False)
+    return [k for k in STRENGTH_FINGERPRINT if da[k] is not None and db[k] is not None and da[k] != db[k]]

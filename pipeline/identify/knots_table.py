@@ -41,7 +41,7 @@ import json
 from typing import Any, Optional
 
 from ..errors import KnotLedgerError
-from .fingerprint import _factors, _poly
+from .fingerprint import _factors, _poly, base_fingerprint, separating_invariants
 from .normal_forms import CN_ALT
 
 __all__ = ["build_knots_table", "group_rows", "check_invariants", "amphichirality",
@@ -115,6 +115,10 @@ def build_knots_table(rows: list[dict]) -> list[dict]:
             "flype_code": _flype_code(key, members, metas),
             "_fps": {m.get("fingerprint") for m in metas if m.get("fingerprint")},
             "_dids": did,
+            # strength (issue 12): the older fingerprint data (knots: the new invariants
+            # are in knot fingerprints only) and a row to compare
+            "_base_fps": {base_fingerprint(m) for m in members if m.get("components") == 1},
+            "_example": members[0],
         })
     add_notes(out)
     check_flype_classes(out)
@@ -276,16 +280,45 @@ def add_notes(out: list[dict]) -> None:
             keys_of_fp.setdefault(f, set()).add(row["knot_key"])
         for d in row["_dids"]:
             keys_of_did.setdefault(d, set()).add(row["knot_key"])
+    # strength (issue 12): keys sharing the older fingerprint data
+    keys_of_base: dict[str, set] = {}
+    examples = {r["knot_key"]: r.get("_example") for r in out}
+    for row in out:
+        for f in row.get("_base_fps", ()):
+            keys_of_base.setdefault(f, set()).add(row["knot_key"])
     for row in out:
         shared = set().union(*(keys_of_fp[f] for f in row.pop("_fps"))) - {row["knot_key"]}
         row["fingerprint_shared_with"] = sorted(shared)
         row["distinctness_note"] = _distinctness_note(row, sorted(shared), proofs)
         same_diagram = sorted({k for d in row.pop("_dids") for k in keys_of_did[d]
                                if k != row["knot_key"] and proofs.get(k) == "normal form"})
+        _separated_note(row, keys_of_base, examples, keys_of_fp)
         if row["proof"] != "normal form" and same_diagram:
             # an identical diagram (equal diagram_id, see pipeline.diagrams.canonical) is an isotopy
             row["distinctness_note"] = ("the same type as " + ", ".join(same_diagram) +
                                         ": an identical diagram (same diagram_id) has that key")
+
+
+def _separated_note(row: dict, keys_of_base: dict, examples: dict, keys_of_fp: dict) -> None:
+    """Append to the note which issue-12 invariant separates keys sharing the older data.
+
+    Different values of an invariant are a proof that the types differ.  Consumes the
+    private ``_base_fps`` and ``_example`` fields.
+    """
+    key = row["knot_key"]
+    base = row.pop("_base_fps", set())
+    mine = row.pop("_example", None)
+    older = sorted(set().union(*(keys_of_base[f] for f in base)) - {key} - set(row["fingerprint_shared_with"])) \
+        if base else []
+    parts = []
+    for other in older:
+        names = separating_invariants(mine or {}, examples.get(other) or {})
+        if names:
+            parts.append(f"distinct from {other} by {' and '.join(names)} (same determinant, "
+                         f"Alexander, Jones and signature)")
+    if parts:
+        note = "; ".join(parts)
+        row["distinctness_note"] = note if not row["distinctness_note"] else row["distinctness_note"] + "; " + note
 
 
 def _family_of_key(k: str) -> str:

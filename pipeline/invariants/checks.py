@@ -38,6 +38,10 @@ nullity_zero_factors          all         nullity = number of zero invariant fac
 goeritz_det                   all         |det Goeritz| = det                              Goeritz 1933; Gordon–Litherland 1978
 ============================  ==========  ===============================================  ======================================
 
+The HOMFLY-PT, Khovanov, Rasmussen s and Tristram–Levine relations (``homfly_jones``,
+``khovanov_euler_jones``, ``rasmussen_alternating``, ...) are listed with their sources
+in :mod:`pipeline.invariants.strength_checks`.
+
 The signed relations.  Take a Seifert matrix V of size m = 2g + c − 1 with
 V_ij = lk(a_i, a_j⁺), so σ = sign(V + Vᵀ) (the positive trefoil has σ = −2) and the
 Conway-normalised polynomial is Δ(t) = det(t^−½V − t^½Vᵀ) (this orientation of the
@@ -83,7 +87,7 @@ from . import bounds
 from .linking import linking_numbers
 from .row import InvariantValues
 
-__all__ = ["run_checks", "evaluate_at_root", "CHECK_NAMES"]
+__all__ = ["run_checks", "evaluate_at_root", "CHECK_NAMES", "ALL_CHECK_NAMES"]
 
 CHECK_NAMES = (
     "determinant_product", "determinant_odd", "alexander_at_one", "alexander_symmetric",
@@ -94,6 +98,12 @@ CHECK_NAMES = (
     "jones_span_alternating", "signature_mod_four", "signature_alexander_span",
     "signature_parity", "nullity_zero_factors", "goeritz_det",
 )
+# ---- strength (issue 12): the relations of pipeline/invariants/strength_checks.py
+from .strength_checks import STRENGTH_CHECK_NAMES, strength_checks  # noqa: E402
+
+#: Every check name: the classical relations above and the issue-12 ones.
+ALL_CHECK_NAMES = CHECK_NAMES + STRENGTH_CHECK_NAMES
+# ---- end strength
 
 
 # ---------------------------------------------------------------- exact evaluation
@@ -258,4 +268,6 @@ def run_checks(diagram: Diagram, values: "InvariantValues | Mapping[str, Any]") 
     if det is not None and sig is not None:
         from .signature import goeritz_determinant
         out["goeritz_det"] = abs(goeritz_determinant(diagram)) == det
+    # ---- strength (issue 12): HOMFLY-PT, Khovanov, s, Tristram–Levine (own module, own sources)
+    out.update(strength_checks(diagram, values, knot=knot))
     return dict(sorted(out.items()))

@@ -1,8 +1,25 @@
-"""Chirality verdicts from the Jones polynomial and the signature.
+"""Chirality verdicts from the Jones polynomial, the signature, HOMFLY-PT and Khovanov homology.
 
 Vocabulary (README.md, closed): this module returns ``chiral (jones)``,
-``chiral (signature)`` or ``unknown``; the normal-form verdicts are added by the
-classifier.
+``chiral (signature)``, ``chiral (homfly)``, ``chiral (khovanov)`` or ``unknown``; the
+normal-form verdicts are added by the classifier.
+
+Order of precedence (the first invariant that decides names the verdict): Jones,
+signature, HOMFLY-PT, Khovanov.  The older two come first so that every verdict they
+gave is unchanged; HOMFLY-PT only decides where Jones and σ agree with the mirror
+(V is a specialisation of P, so V ≠ V(1/t) already implies P ≠ P*), and Khovanov
+homology where P does too.
+
+* **HOMFLY-PT (knots).**  The mirror image has P(−v⁻¹, z) (Freyd et al. 1985; see
+  :meth:`~pipeline.invariants.homfly.hpoly.HPoly.mirror`), and P of a knot does not
+  depend on its orientation, so P ≠ P* proves chirality (``chiral (homfly)``).
+* **Khovanov (knots).**  Over a field Kh^{i,j}(K*) ≅ Kh^{−i,−j}(K) (Khovanov 2000;
+  Bar-Natan 2002), and s(K*) = −s(K) (Rasmussen 2010); both are invariants of the
+  unoriented knot.  Ranks different from the mirrored ranks, or s ≠ 0, prove chirality
+  (``chiral (khovanov)``).
+* **Links.**  P and Kh of a link depend on the orientations in a way that has no
+  shift formula as simple as Morton's for V, so they are not used for links here (the
+  verdict is decided by Jones and σ over orientations, as before, or stays unknown).
 
 * **Knots.**  The mirror image has V(1/t) and −σ (common practice), and neither
   depends on the orientation of a knot.  So V(t) ≠ V(1/t) proves chirality
@@ -114,7 +131,9 @@ def _mirror_values(values: set[tuple]) -> set[tuple]:
     return {(v.invert() if v is not None else None, -s if s is not None else None) for v, s in values}
 
 
-def chirality(diagram: Diagram, *, jones: Optional[Laurent], signature: Optional[int]) -> tuple[str, str]:
+def chirality(diagram: Diagram, *, jones: Optional[Laurent], signature: Optional[int],
+              homfly=None, khovanov: Optional[dict] = None,
+              rasmussen_s: Optional[int] = None) -> tuple[str, str]:
     """Chirality verdict and its reason, from Jones and signature.
 
     Parameters
@@ -125,11 +144,18 @@ def chirality(diagram: Diagram, *, jones: Optional[Laurent], signature: Optional
     signature : int or None
         Its signature (None when not computed).  For links the other orientations'
         values follow from these and the linking numbers (:func:`orientation_values`).
+    homfly : HPoly or None, optional
+        P of the diagram (knots only).
+    khovanov : dict or None, optional
+        Ranks {(i, j): rank} of Kh over Q (knots only).
+    rasmussen_s : int or None, optional
+        Rasmussen's s (knots only).
 
     Returns
     -------
     (verdict, reason) : tuple of str
-        verdict in {``chiral (jones)``, ``chiral (signature)``, ``unknown``}.
+        verdict in {``chiral (jones)``, ``chiral (signature)``, ``chiral (homfly)``,
+        ``chiral (khovanov)``, ``unknown``}.
 
     Examples
     --------
@@ -145,10 +171,22 @@ def chirality(diagram: Diagram, *, jones: Optional[Laurent], signature: Optional
             return "chiral (jones)", "V(t) != V(1/t)"
         if s is not None and s != 0:
             return "chiral (signature)", f"signature {s} != 0"
-        done = [n for n, x in (("jones", v), ("signature", s)) if x is not None]
+        # ---- strength (issue 12): HOMFLY-PT, then Khovanov homology and s
+        if homfly is not None and homfly != homfly.mirror():
+            return "chiral (homfly)", "P(v, z) != P(-1/v, z)"
+        if khovanov is not None:
+            from .khovanov import mirror_ranks
+            if dict(khovanov) != mirror_ranks(khovanov):
+                return "chiral (khovanov)", "Kh^{i,j} != Kh^{-i,-j}"
+        if rasmussen_s is not None and rasmussen_s != 0:
+            return "chiral (khovanov)", f"Rasmussen s {rasmussen_s} != 0"
+        done = [n for n, x in (("jones", v), ("signature", s), ("homfly", homfly),
+                               ("khovanov", khovanov)) if x is not None]
+        # ---- end strength
         if not done:
             return "unknown", "jones and signature not computed"
-        return "unknown", f"{' and '.join(done)} {'agree' if len(done) > 1 else 'agrees'} with the mirror"
+        names = ", ".join(done[:-1]) + " and " + done[-1] if len(done) > 1 else done[0]
+        return "unknown", f"{names} {'agree' if len(done) > 1 else 'agrees'} with the mirror"
     return _link_verdict(diagram, v, s)
 
 

@@ -26,6 +26,29 @@ from typing import Any, Mapping, Optional
 
 from .poly import Laurent
 
+# ---- strength (issue 12): HOMFLY-PT, Khovanov, Tristram–Levine readers
+from .homfly.hpoly import HPoly
+
+
+def _json(v: Any) -> Any:
+    if _missing(v):
+        return None
+    return json.loads(v) if isinstance(v, str) else v
+
+
+def _hpoly(v: Any) -> Optional[HPoly]:
+    v = _json(v)
+    return v if v is None or isinstance(v, HPoly) else HPoly.from_json(v)
+
+
+def _rank_dict(v: Any) -> Optional[dict]:
+    """Khovanov ranks {(i, j): rank} from the [[i, j, rank]] list, JSON text or a dict."""
+    v = _json(v)
+    if v is None or isinstance(v, dict):
+        return v
+    return {(int(i), int(j)): int(r) for i, j, r in v}
+# ---- end strength readers
+
 __all__ = ["InvariantValues", "CensusRow"]
 
 
@@ -72,6 +95,14 @@ class InvariantValues:
     jones: Optional[Laurent] = None
     signature: Optional[int] = None
     nullity: Optional[int] = None
+    # ---- strength (issue 12)
+    homfly: Optional[HPoly] = None
+    khovanov: Optional[dict] = None          # {(i, j): rank over Q}
+    khovanov_f2: Optional[dict] = None       # {(i, j): rank over F2}
+    khovanov_reduced: Optional[dict] = None  # knots: reduced ranks over Q
+    rasmussen_s: Optional[int] = None
+    tristram_levine: Optional[dict] = None   # SignatureFunction.to_json()
+    # ---- end strength
 
     @classmethod
     def from_record(cls, row: Mapping[str, Any]) -> "InvariantValues":
@@ -87,7 +118,13 @@ class InvariantValues:
                    invariant_factors=_factor_tuple(g("invariant_factors")),
                    alexander=_laurent(g("alexander")), conway=_laurent(g("conway")),
                    jones=_laurent(g("jones")), signature=_int_or_none(g("signature")),
-                   nullity=_int_or_none(g("nullity")))
+                   nullity=_int_or_none(g("nullity")),
+                   # strength (issue 12)
+                   homfly=_hpoly(g("homfly")), khovanov=_rank_dict(g("khovanov")),
+                   khovanov_f2=_rank_dict(g("khovanov_f2")),
+                   khovanov_reduced=_rank_dict(g("khovanov_reduced")),
+                   rasmussen_s=_int_or_none(g("rasmussen_s")),
+                   tristram_levine=_json(g("tristram_levine")))
 
     @classmethod
     def coerce(cls, values: "InvariantValues | Mapping[str, Any]") -> "InvariantValues":
@@ -116,6 +153,15 @@ class CensusRow:
     jones: Optional[Laurent] = None
     signature: Optional[int] = None
     nullity: Optional[int] = None
+    # ---- strength (issue 12): JSON forms of schemas/README.md
+    homfly: Optional[HPoly] = None
+    khovanov: Optional[list] = None
+    khovanov_f2: Optional[list] = None
+    rasmussen_s: Optional[int] = None
+    kh_width: Optional[int] = None
+    khovanov_reduced: Optional[list] = None
+    tristram_levine: Optional[dict] = None
+    # ---- end strength
     bounds: Optional[dict] = None
     chirality: str = "unknown"
     chirality_reason: str = "not computed"
@@ -129,7 +175,12 @@ class CensusRow:
         return InvariantValues(components=self.components, determinant=self.determinant,
                                invariant_factors=self.invariant_factors, alexander=self.alexander,
                                conway=self.conway, jones=self.jones, signature=self.signature,
-                               nullity=self.nullity)
+                               nullity=self.nullity,
+                               # strength (issue 12)
+                               homfly=self.homfly, khovanov=_rank_dict(self.khovanov),
+                               khovanov_f2=_rank_dict(self.khovanov_f2),
+                               khovanov_reduced=_rank_dict(self.khovanov_reduced),
+                               rasmussen_s=self.rasmussen_s, tristram_levine=self.tristram_levine)
 
     def to_record(self) -> dict[str, Any]:
         """The row as the dict the census writer stores (lists for sequences, copies of

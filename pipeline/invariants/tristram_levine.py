@@ -43,7 +43,6 @@ from itertools import combinations
 from math import gcd, isqrt
 from typing import Optional, Sequence
 
-import sympy
 from flint import fmpz_mat, fmpz_poly
 
 from ..diagrams.diagram import Diagram
@@ -311,6 +310,7 @@ def tristram_levine(V: Sequence[Sequence[int]]) -> SignatureFunction:
         return SignatureFunction((), (0,), at_minus_one)
     D = _breakpoint_poly(W, S, A)
     G = _x_polynomial(D)
+    import sympy  # root isolation only; imported here so census workers stay sympy-free when unused
     x = sympy.Symbol("x")
     roots = []  # (lo, hi, factor, multiplicity)
     _, factors = G.factor()

@@ -20,6 +20,10 @@ PLOTS = {
     "knot_collapse.png": "Diagrams versus distinct knot types per family",
     "chirality.png": "Chirality verdicts per family",
     "timings.png": "Seconds per committed chunk",
+    # ---- strength (issue 12)
+    "kh_width.png": "Khovanov width (diagonals j − 2i carrying Kh over Q) per family",
+    "chiral_by_invariant.png": "Share of rows each invariant proved chiral",
+    # ---- end strength
 }
 
 

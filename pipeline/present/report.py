@@ -29,6 +29,7 @@ from . import plots as rp
 from .explorer import write_explorer
 from .report_types import knot_types_blocks
 from .files import write_text_atomic
+from .report_strength import strength_section
 from ..census.reader import Census, exact_int, open_census
 from ..errors import QueryError
 from ..numbers import primes_upto
@@ -313,6 +314,7 @@ def build_report(directory: str | Path) -> tuple[Path, Path, list[Path]]:
     _colourability(census, blocks, plots)
     _knot_types(census, blocks, plots)
     _chirality(census, blocks, plots)
+    strength_section(census, blocks, plots)  # issue 12 (report_strength.py)
     _certification(census, blocks)
     _timings(census, blocks, plots)
     _rejects(census, blocks)

@@ -73,12 +73,20 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
 
 
 # ------------------------------------------------------------------ collecting
+#: Largest diagram on which ``show`` computes HOMFLY-PT and Khovanov homology.
+SHOW_STRENGTH_MAX_CROSSINGS = 40
+
+
 def collect(diagram: Diagram, *, max_modulus: int = 16, extra_primes: tuple[int, ...] = (),
             notation: str | None = None) -> dict:
     """The census row of ``diagram`` (:func:`~pipeline.invariants.all.compute_all`, exactly
     what a census stores), plus witnesses and fewest colours for ``extra_primes``."""
     from ..invariants.all import compute_all
-    row = dict(compute_all(diagram, max_modulus=max_modulus, notation=notation))
+    # HOMFLY-PT (skein route) and Khovanov homology are skipped, with the budget status,
+    # on diagrams beyond SHOW_STRENGTH_MAX_CROSSINGS: a census sets its own budgets
+    big = diagram.n_crossings > SHOW_STRENGTH_MAX_CROSSINGS
+    row = dict(compute_all(diagram, max_modulus=max_modulus, notation=notation,
+                           **({"homfly_budget": 0, "khovanov_budget": 0} if big else {})))
     if notation is not None:
         _add_knot_type(row, diagram, notation)
     if row.get("determinant") is None:  # the colouring part failed; the page says so

@@ -16,6 +16,7 @@ from __future__ import annotations
 from typing import Optional
 
 from ...diagrams.diagram import Diagram
+from ...diagrams.notation import Notation
 from ..seifert import braid_of_notation
 from .hecke import MAX_STRANDS, basis_trace, homfly_braid
 from .hpoly import DELTA, HPoly
@@ -25,8 +26,13 @@ __all__ = ["HPoly", "DELTA", "homfly_polynomial", "homfly_general", "homfly_brai
            "homfly_of_notation", "basis_trace", "MAX_STRANDS"]
 
 
-def homfly_of_notation(text: str, *, budget: Optional[int] = None) -> Optional[HPoly]:
+def homfly_of_notation(text: "str | Notation", *, budget: Optional[int] = None) -> Optional[HPoly]:
     """P by the braid route for ``braid:`` and ``torus:`` notation; None for other kinds.
+
+    ``text`` is a notation string or a parsed
+    :class:`~pipeline.diagrams.notation.Notation` (read by
+    :func:`~pipeline.diagrams.notation.parse_notation` through
+    :func:`~pipeline.invariants.seifert.braid_of_notation`).
 
     Also None when the braid has more than ``MAX_STRANDS`` strands.  ``budget`` bounds
     n!·length (see :func:`homfly_braid`).
@@ -40,7 +46,7 @@ def homfly_of_notation(text: str, *, budget: Optional[int] = None) -> Optional[H
     return homfly_braid(word, strands=n, budget=budget)
 
 
-def homfly_polynomial(diagram: Diagram, *, notation: Optional[str] = None,
+def homfly_polynomial(diagram: Diagram, *, notation: "Optional[str | Notation]" = None,
                       budget: Optional[int] = None, braid_budget: Optional[int] = None) -> HPoly:
     """HOMFLY-PT polynomial P(v, z) of an oriented link diagram.
 

@@ -36,7 +36,7 @@ from ..poly import Laurent
 from .tangle import TangleComplex, close_cut, reduced_complex
 
 __all__ = ["KhovanovData", "khovanov_homology", "reduced_khovanov", "khovanov_data", "rasmussen_s",
-           "kh_width",
+           "kh_width", "thin_s",
            "ranks_to_json", "ranks_from_json", "mirror_ranks", "jones_from_khovanov"]
 
 Ranks = dict[tuple[int, int], int]
@@ -233,18 +233,39 @@ def reduced_khovanov(diagram: Diagram, *, field: int = 0, budget: Optional[int] 
     return _ranks(reduced_complex(diagram, one, budget=budget, keep_cut=True, h0=True), 0)
 
 
+def thin_s(ranks: Ranks) -> Optional[int]:
+    """Rasmussen's s of a knot read off Kh over Q when it is thin, else None.
+
+    Lee's spectral sequence from Kh over Q converges to Q in bidegrees (0, s − 1) and
+    (0, s + 1) (E. S. Lee, "An endomorphism of the Khovanov invariant", Adv. Math. 197
+    (2005); J. Rasmussen, Invent. Math. 182 (2010)), so those two groups are nonzero and
+    lie on the diagonals ``j − 2i = s ± 1``.  When every rank lies on two adjacent
+    diagonals ``δ − 1`` and ``δ + 1`` these must be them, so ``s = δ`` (a theorem, not a
+    heuristic).  Returns None otherwise (thick: s needs the Q[h] computation).
+    """
+    diagonals = sorted({j - 2 * i for (i, j), r in ranks.items() if r})
+    if len(diagonals) == 2 and diagonals[1] - diagonals[0] == 2:
+        return diagonals[0] + 1
+    return None
+
+
 def khovanov_data(diagram: Diagram, *, budget: Optional[int] = None) -> KhovanovData:
-    """Kh over Q and F₂, s and reduced Kh over Q (knots), width: two runs of the local algorithm.
+    """Kh over Q and F₂, s and reduced Kh over Q (knots), width.
+
+    Kh over Q and its reduced form come from one run of the local algorithm in
+    Khovanov's theory (h = 0), Kh over F₂ from a second run.  For a knot, s is read off
+    a thin Kh over Q (:func:`thin_s`); only a thick knot gets the slower run over Q[h]
+    (:func:`rasmussen_s`), under the same budget.
 
     Raises
     ------
     BudgetExceeded
-        ``skipped: khovanov budget N`` when either run grows past ``budget``.
+        ``skipped: khovanov budget N`` when any run grows past ``budget``.
     """
     _check_budget(budget)
     knot = diagram.n_components == 1
     reduced = None
-    cx = reduced_complex(diagram, flint.fmpq(1), budget=budget, keep_cut=True)
+    cx = reduced_complex(diagram, flint.fmpq(1), budget=budget, keep_cut=True, h0=True)
     if diagram.n_crossings:
         if knot:
             reduced = ranks_to_json(_ranks(cx, 0))
@@ -252,7 +273,11 @@ def khovanov_data(diagram: Diagram, *, budget: Optional[int] = None) -> Khovanov
     elif knot:
         reduced = [[0, 0, 1]]
     q_ranks = _ranks(cx, diagram.free_loops)
-    s = _s_from_complex(cx) if knot else None
+    s = None
+    if knot:
+        s = thin_s(q_ranks)
+        if s is None:
+            s = _s_from_complex(reduced_complex(diagram, flint.fmpq(1), budget=budget))
     f2 = _ranks(reduced_complex(diagram, flint.nmod(1, 2), budget=budget, h0=True), diagram.free_loops)
     return KhovanovData(ranks_to_json(q_ranks), ranks_to_json(f2), s, kh_width(q_ranks), reduced)
 
