@@ -219,3 +219,14 @@ def test_large_braids_specialise_correctly(text):
     P = homfly_of_notation(text)
     assert P.conway() == conway_polynomial(d)
     assert P.jones() == jones_polynomial(d)
+
+
+@pytest.mark.parametrize("text", ["rational:7/1", "rational:7/6", "rational:9/-1", "conway:5",
+                                  "conway:-7", "rational:11/12"])
+def test_two_strand_knot_rows_take_the_braid_route_with_the_skein_value(text):
+    # T(2, a) typed as a two-bridge knot: the Hecke route on σ1^±a must give exactly what
+    # the skein route gives on the row's own 4-plat diagram (and V through P(t, t^½−t^−½))
+    d = parse(text)
+    fast = homfly_polynomial(d, notation=text)
+    assert fast == homfly_general(d)
+    assert fast.jones() == jones_polynomial(d)

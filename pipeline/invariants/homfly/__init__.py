@@ -16,7 +16,7 @@ from __future__ import annotations
 from typing import Optional
 
 from ...diagrams.diagram import Diagram
-from ...diagrams.notation import Notation
+from ...diagrams.notation import Notation, parse_notation
 from ..seifert import braid_of_notation
 from .hecke import MAX_STRANDS, basis_trace, homfly_braid
 from .hpoly import DELTA, HPoly
@@ -39,11 +39,36 @@ def homfly_of_notation(text: "str | Notation", *, budget: Optional[int] = None) 
     """
     wb = braid_of_notation(text)
     if wb is None:
+        wb = _two_strand_knot(text)
+    if wb is None:
         return None
     word, n = wb
     if n > MAX_STRANDS:
         return None
     return homfly_braid(word, strands=n, budget=budget)
+
+
+def _two_strand_knot(text: "str | Notation") -> Optional[tuple[list[int], int]]:
+    """(σ1^±a, 2) when a ``rational:``/``conway:`` row is the torus knot T(2, ±a), a odd.
+
+    b(α, β) with β ≡ 1 (mod α) is T(2, α) and with β ≡ −1 its mirror (Schubert; the README
+    pins ``rational:a/1`` = ``torus:2,a``); ``conway:a`` is ``rational:a/1``.  Only knots
+    (a odd): P of a knot does not depend on its orientation, while the 4-plat picture of
+    T(2, a) for even a may orient the two components otherwise than the braid closure.
+    The skein route is slow on this one long twist region, the Hecke route linear.
+    """
+    note = parse_notation(text) if isinstance(text, str) else text
+    if note.kind == "rational":
+        alpha, beta = (int(v) for v in note.args)
+        alpha = abs(alpha)
+        sign = 1 if beta % alpha == 1 % alpha else (-1 if beta % alpha == alpha - 1 else 0)
+    elif note.kind == "conway" and len(note.args) == 1:
+        alpha, sign = abs(int(note.args[0])), (1 if int(note.args[0]) > 0 else -1)
+    else:
+        return None
+    if sign == 0 or alpha < 3 or alpha % 2 == 0:
+        return None
+    return [sign] * alpha, 2
 
 
 def homfly_polynomial(diagram: Diagram, *, notation: "Optional[str | Notation]" = None,
