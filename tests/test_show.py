@@ -122,3 +122,18 @@ def test_show_does_not_import_the_census_or_plotting_libraries():
              "print(' '.join(m for m in ('pandas', 'pyarrow', 'duckdb', 'matplotlib') if m in sys.modules))\n")
     res = subprocess.run([sys.executable, "-c", probe], capture_output=True, text=True, check=True)
     assert res.stdout.strip() == ""
+
+
+def test_page_prints_homfly_khovanov_s_and_the_signature_function(capsys):
+    # positive trefoil: P = 2v² − v⁴ + v²z² (skein relation; tests/SOURCES.md), Kh over Q of
+    # rank 1 at (0,1), (0,3), (2,5), (3,9) (Bar-Natan 2002, memory), s = 2 (Rasmussen 2010),
+    # σ_ω jumps once, at ω = e^{2πi/6}, from 0 to −2 (the root of t² − t + 1 on the circle)
+    code, out, _ = _run(capsys, "torus:2,3")
+    assert code == 0
+    assert "HOMFLY-PT  P(v,z) = 2v^2 + v^2z^2 - v^4" in out
+    assert "(0,1) (0,3) (2,5) (3,9)" in out
+    assert "s          2 (Rasmussen)" in out
+    assert "values [0, -2] between jumps at θ/2π = 1/6 (σ_-1 = -2)" in out
+    # the figure-eight: P = v⁻² − 1 − z² + v² (memory), amphichiral, so no jump
+    code, out, _ = _run(capsys, "conway:2 2")
+    assert "P(v,z) = v^(-2) - 1 - z^2 + v^2" in out and "θ/2π = none" in out

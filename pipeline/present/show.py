@@ -293,6 +293,44 @@ def _witness_lines(row: dict, names: list[str], det: int, max_modulus: int) -> l
     return lines
 
 
+def _homfly_text(value) -> str:
+    """v⁻¹P(L₊) − vP(L₋) = zP(L₀) terms as text, e.g. ``2v^2 + v^2z^2 - v^4``."""
+    terms = value.to_json() if hasattr(value, "to_json") else value
+    out = []
+    for a, b, c in terms:
+        mono = "".join(f"{x}" if e == 1 else f"{x}^{e}" if e >= 0 else f"{x}^({e})"
+                       for x, e in (("v", a), ("z", b)) if e)
+        coeff = "" if mono and abs(c) == 1 else str(abs(c))
+        out.append(("- " if c < 0 else "+ ") + coeff + mono)
+    text = " ".join(out)
+    return (text[2:] if text.startswith("+ ") else "-" + text[2:]) if out else "0"
+
+
+def _strength_lines(row: dict) -> list[str]:
+    """HOMFLY-PT, Khovanov ranks, Rasmussen's s and σ_ω jumps (the census columns)."""
+    lines = []
+    if "homfly" in row:
+        P = row["homfly"]
+        lines.append(f"  HOMFLY-PT  P(v,z) = {_homfly_text(P) if P is not None else 'not computed'}")
+    if "khovanov" in row:
+        kh = row["khovanov"]
+        if kh is None:
+            lines.append("  Khovanov   not computed")
+        else:
+            ranks = [f"({i},{j}):{r}" if r != 1 else f"({i},{j})" for i, j, r in kh]
+            head = f"  Khovanov   over Q, (i,j):rank, width {row.get('kh_width')}: "
+            lines += [head.rstrip()] + _wrap(ranks, " " * 13)
+    if row.get("rasmussen_s") is not None:
+        lines.append(f"  s          {row['rasmussen_s']} (Rasmussen)")
+    tl = row.get("tristram_levine")
+    if tl is not None:
+        data = tl.to_json() if hasattr(tl, "to_json") else tl
+        angles = [j.get("angle") or "~" for j in data.get("jumps", [])]
+        lines.append(f"  σ_ω        values {list(data.get('values', []))} between jumps at θ/2π = "
+                     f"{', '.join(map(str, angles)) or 'none'} (σ_-1 = {data.get('at_minus_one')})")
+    return lines
+
+
 def _other_invariants(row: dict) -> list[str]:
     lines = []
     for key, label, var in (("alexander", "Alexander  Δ(t)", "t"), ("conway", "Conway     ∇(z)", "z"),
@@ -300,6 +338,7 @@ def _other_invariants(row: dict) -> list[str]:
         if key in row:
             value = row[key]
             lines.append(f"  {label} = {_poly_text(value, var) if value is not None else 'not computed'}")
+    lines += _strength_lines(row)
     for key in ("signature", "nullity"):
         if key in row:
             lines.append(f"  {key:<10} {row[key] if row[key] is not None else 'not computed'}")
