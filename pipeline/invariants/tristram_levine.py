@@ -21,7 +21,7 @@ interpolation of integer determinants).  Writing
 D(s) = s^r F(s²) and x = ω + ω̄ = 2cos θ, so that s² = (2 − x)/(2 + x), the jump points are
 the roots in (−2, 2) of G(x) = (2 + x)^(deg F) F((2 − x)/(2 + x)), up to a constant the
 Alexander polynomial Δ(t) written in x = t + 1/t.  Each is stored as an irreducible
-integer factor of G with an exact rational isolating interval (sympy), its multiplicity,
+integer factor of G with an exact rational isolating interval (Sturm sequences), its multiplicity,
 and, when ω is a root of unity (the factor is the minimal polynomial of 2cos(2π/n),
 python-flint ``cos_minpoly``), its angle θ/2π as a fraction.  The values on the arcs
 between jumps are computed at rational sample points s.  No floating point anywhere.
@@ -43,7 +43,7 @@ from itertools import combinations
 from math import gcd, isqrt
 from typing import Optional, Sequence
 
-from flint import fmpz_mat, fmpz_poly
+from flint import fmpq, fmpq_poly, fmpz_mat, fmpz_poly
 
 from ..diagrams.diagram import Diagram
 from ..diagrams.notation import Notation
@@ -310,33 +310,26 @@ def tristram_levine(V: Sequence[Sequence[int]]) -> SignatureFunction:
         return SignatureFunction((), (0,), at_minus_one)
     D = _breakpoint_poly(W, S, A)
     G = _x_polynomial(D)
-    import sympy  # root isolation only; imported here so census workers stay sympy-free when unused
-    x = sympy.Symbol("x")
-    roots = []  # (lo, hi, factor, multiplicity)
+    roots = []  # (lo, hi, factor, multiplicity, sturm sequence)
     _, factors = G.factor()
     for fac, mult in factors:
-        cs = [int(c) for c in fac.coeffs()]
         if fac.degree() < 1:
             continue
-        poly = sympy.Poly(list(reversed(cs)), x)
-        for (lo, hi), _ in poly.intervals(inf=-2, sup=2):
-            lo, hi = Fraction(int(lo.p), int(lo.q)), Fraction(int(hi.p), int(hi.q))
-            if (lo == hi and abs(lo) == 2):
+        seq = _sturm(fac)
+        for lo, hi in _isolate(seq):
+            if lo == hi and abs(lo) == 2:
                 continue
-            roots.append([lo, hi, fac, mult, poly])
+            roots.append([lo, hi, fac, mult, seq])
     # make the isolating intervals pairwise disjoint and away from ±2 (distinct roots)
-    eps = Fraction(1, 4)
     while True:
         roots.sort(key=lambda r: r[0])
         clash = any(a[1] >= b[0] for a, b in zip(roots, roots[1:])) or \
             any((r[0] <= -2 or r[1] >= 2) and r[0] != r[1] for r in roots)
         if not clash:
             break
-        eps /= 16
         for r in roots:
             if r[0] != r[1]:
-                lo, hi = r[4].refine_root(r[0], r[1], eps=eps)
-                r[0], r[1] = Fraction(int(lo.p), int(lo.q)), Fraction(int(hi.p), int(hi.q))
+                r[0], r[1] = _halve(r[4], r[0], r[1])
     roots = [r for r in roots if -2 < r[0] <= r[1] < 2]
     roots.sort(key=lambda r: -r[0])  # θ increasing = x decreasing
     jumps = []
@@ -390,3 +383,52 @@ def signature_function(diagram: Diagram, *, notation: "str | Notation | None" = 
     if V is None:
         V = seifert_matrix(diagram)
     return tristram_levine(V)
+
+
+def _sturm(f: fmpz_poly) -> list:
+    """Sturm sequence of a squarefree integer polynomial (exact, over Q)."""
+    seq = [fmpq_poly(f), fmpq_poly(f).derivative()]
+    while seq[-1].degree() > 0:
+        r = -(seq[-2] % seq[-1])
+        if r == 0:
+            break
+        seq.append(r)
+    return seq
+
+
+def _changes(seq: list, x: Fraction) -> int:
+    vals = [v for v in (p(fmpq(x.numerator, x.denominator)) for p in seq) if v != 0]
+    return sum(1 for a, b in zip(vals, vals[1:]) if (a > 0) != (b > 0))
+
+
+def _isolate(seq: list) -> list[tuple[Fraction, Fraction]]:
+    """Disjoint intervals [lo, hi] ⊂ [−2, 2], one per real root of ``seq[0]`` in [−2, 2]
+    (Sturm's theorem: #roots in (a, b] = V(a) − V(b)); a rational root is returned as
+    [r, r].  ``seq[0]`` is an irreducible factor, so of degree ≥ 2 it has no rational root
+    and no bisection point is ever a root.  Exact rational arithmetic only (python-flint
+    ``fmpq_poly``)."""
+    f = seq[0]
+    if f.degree() == 1:
+        c0, c1 = (Fraction(int(c.p), int(c.q)) for c in f.coeffs())
+        r = -c0 / c1
+        return [(r, r)] if -2 <= r <= 2 else []
+    out, todo = [], [(Fraction(-2), Fraction(2))]
+    while todo:
+        a, b = todo.pop()
+        n = _changes(seq, a) - _changes(seq, b)           # roots in (a, b]
+        if n == 1:
+            out.append((a, b))
+        elif n > 1:
+            m = (a + b) / 2
+            if f(fmpq(m.numerator, m.denominator)) == 0:
+                raise KnotLedgerError("tristram_levine: a rational root of an irreducible factor")
+            todo += [(a, m), (m, b)]
+    return sorted(out)
+
+
+def _halve(seq: list, lo: Fraction, hi: Fraction) -> tuple[Fraction, Fraction]:
+    """The half of [lo, hi] that holds the one root of ``seq[0]`` in it (Sturm count)."""
+    m = (lo + hi) / 2
+    if seq[0](fmpq(m.numerator, m.denominator)) == 0:
+        return m, m
+    return (lo, m) if _changes(seq, lo) - _changes(seq, m) == 1 else (m, hi)
