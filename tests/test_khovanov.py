@@ -52,7 +52,7 @@ def test_figure_eight():
 
 
 def torus_2n(n: int) -> dict:
-    """Kh(T(2,n)) over Q, n ≥ 3 odd: q^(n−2) + q^n + Σ_{k=1}^{(n−1)/2} (t^{2k} q^{n+4k−2} +
+    """Khovanov homology of T(2,n) over Q, n ≥ 3 odd: q^(n−2) + q^n + Σ_{k=1}^{(n−1)/2} (t^{2k} q^{n+4k−2} +
     t^{2k+1} q^{n+4k+2}) *(memory: M. Khovanov, Duke Math. J. 101 (2000), §6.2)*."""
     out = {(0, n - 2): 1, (0, n): 1}
     for k in range(1, (n - 1) // 2 + 1):

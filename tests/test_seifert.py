@@ -11,7 +11,7 @@ Checked against:
   a split diagram; for a knot V − Vᵀ is unimodular (the intersection form of a surface
   with one boundary circle) *(common practice)*;
 * the positive trefoil's Seifert matrix [[−1, 1], [0, −1]] up to congruence
-  (W. B. R. Lickorish, An Introduction to Knot Theory, GTM 175 (1997), ch. 6) *(memory)*;
+  (W. B. R. Lickorish, GTM 175 (1997), ch. 6) *(memory)*;
 * the braid route (pipeline.invariants.seifert.braid_seifert_matrix, J. Collins' rules):
   the same Alexander polynomial and the same whole signature function.
 """

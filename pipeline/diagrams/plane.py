@@ -4,7 +4,7 @@ A face is traced by leaving a crossing along the edge at slot ``(i, s)``, arrivi
 its twin ``(j, t)`` and turning to the next slot counterclockwise ``(j, t+1)``.  A
 connected plane 4-valent graph with c crossings has c + 2 faces (Euler's formula
 V − E + F = 2 with E = 2V); a PD code whose traced faces miss that count is not
-planar, i.e. it is a virtual diagram (Kauffman, "Virtual knot theory", European
+planar, i.e. it is a virtual diagram (L. Kauffman, European
 J. Combin. 20 (1999)).
 
 These functions work on the raw crossing tuples, so the DT realiser can test

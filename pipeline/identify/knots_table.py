@@ -26,7 +26,7 @@
 References
 ----------
 1. L. Kauffman, "State models and the Jones polynomial", Topology 26 (1987);
-   K. Murasugi, "Jones polynomials and classical conjectures in knot theory",
+   K. Murasugi, "Jones polynomials and classical conjectures" (title abridged),
    Topology 26 (1987); M. Thistlethwaite, "A spanning tree expansion of the Jones
    polynomial", Topology 26 (1987): a connected reduced alternating diagram has the
    minimal crossing number.

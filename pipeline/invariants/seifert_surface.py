@@ -1,7 +1,7 @@
 """Seifert matrix of any oriented diagram by Seifert's algorithm.
 
 Method (H. Seifert, "Über das Geschlecht von Knoten", Math. Ann. 110 (1935); textbook
-treatment: W. B. R. Lickorish, *An Introduction to Knot Theory*, Springer GTM 175 (1997),
+treatment: W. B. R. Lickorish, Springer GTM 175 (1997),
 ch. 6; G. Burde, H. Zieschang, *Knots*, de Gruyter (1985), ch. 8).  Smoothing every
 crossing along the orientation gives the Seifert circles; each bounds a disc (nested discs
 stacked, inner ones higher) and every crossing becomes a half-twisted band joining the two

@@ -3,8 +3,8 @@
 One row per crossing (PD order), one column per arc (maximal over-strand, in
 ``diagram.arcs`` order) and then one zero column per free loop.  The row of a crossing
 is 2·over − under_in − under_out, so at a kink it collapses to (1, −1), (2, −2) or 0
-(R. H. Fox, "A quick trip through knot theory", in *Topology of 3-Manifolds and Related
-Topics*, Prentice-Hall (1962)).  Both the Smith form (:mod:`.spectrum`) and the mod-p
+(R. H. Fox, "A quick trip" (1962), in *Topology of 3-Manifolds and Related
+Topics*, Prentice-Hall).  Both the Smith form (:mod:`.spectrum`) and the mod-p
 colourings (:mod:`.mod_p`) start from these sparse rows.
 """
 

@@ -24,11 +24,11 @@ References
 ----------
 .. [1] D. Bar-Natan, "Khovanov's homology for tangles and cobordisms",
    Geom. Topol. 9 (2005), 1443–1499.
-.. [2] D. Bar-Natan, "Fast Khovanov homology computations", J. Knot Theory
-   Ramifications 16 (2007), 243–255.
+.. [2] D. Bar-Natan, "Fast Khovanov homology computations", JKTR
+   16 (2007), 243–255.
 .. [3] M. Khovanov, "Link homology and Frobenius extensions", Fund. Math. 190 (2006).
 .. [4] M. Mackaay, P. Turner, P. Vaz, "A remark on Rasmussen's invariant of knots",
-   J. Knot Theory Ramifications 16 (2007).
+   JKTR 16 (2007).
 """
 
 from __future__ import annotations

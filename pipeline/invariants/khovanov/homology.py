@@ -13,13 +13,13 @@ References
 ----------
 .. [1] D. Bar-Natan, "On Khovanov's categorification of the Jones polynomial",
    Algebr. Geom. Topol. 2 (2002), 337–370.
-.. [2] D. Bar-Natan, "Fast Khovanov homology computations", J. Knot Theory
-   Ramifications 16 (2007), 243–255.
+.. [2] D. Bar-Natan, "Fast Khovanov homology computations", JKTR
+   16 (2007), 243–255.
 .. [3] J. Rasmussen, "Khovanov homology and the slice genus", Invent. Math. 182 (2010).
 .. [4] E. S. Lee, "An endomorphism of the Khovanov invariant", Adv. Math. 197 (2005).
 .. [5] M. Khovanov, "Link homology and Frobenius extensions", Fund. Math. 190 (2006).
 .. [6] M. Mackaay, P. Turner, P. Vaz, "A remark on Rasmussen's invariant of knots",
-   J. Knot Theory Ramifications 16 (2007).
+   JKTR 16 (2007).
 """
 
 from __future__ import annotations

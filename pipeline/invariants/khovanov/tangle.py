@@ -22,8 +22,8 @@ References
 ----------
 .. [1] D. Bar-Natan, "Khovanov's homology for tangles and cobordisms",
    Geom. Topol. 9 (2005), 1443–1499.
-.. [2] D. Bar-Natan, "Fast Khovanov homology computations", J. Knot Theory
-   Ramifications 16 (2007), 243–255.
+.. [2] D. Bar-Natan, "Fast Khovanov homology computations", JKTR 16
+   (2007), 243–255.
 """
 
 from __future__ import annotations
