@@ -30,198 +30,108 @@ components canonical_pd is not used, as it also reverses single components, whic
 changes P; the labels are chosen by a deterministic search over the order of the
 components and their base points for the fewest bad crossings instead.
 
-Budget: the number of diagrams expanded; over it raises BudgetExceeded('homfly', budget).
+Twist regions (``twists=True``, the default).  Before the single-crossing step a
+diagram is reduced at a removable bigon (Reidemeister II, free: an isotopy) or at its
+longest twist region (:func:`pipeline.diagrams.bigons.twist_chains`: k ≥ 2 crossings of
+one sign ε joined by bigons).  Write u = v^ε, w = εz; the skein relation at a crossing of
+sign ε reads P(D) = u²P(D switched) + uw·P(D smoothed).
+
+* Parallel strands (σ^k): switching one crossing and cancelling it against a neighbour
+  (Reidemeister II) leaves σ^(k−2), smoothing it leaves σ^(k−1), so
+  x_k = u²x_(k−2) + uw·x_(k−1) with x_k = P(D with k crossings in the region).  Put
+  x_k = u^(k−1)y_k: then y_k = y_(k−2) + w·y_(k−1), the Fibonacci polynomials
+  F_0 = 0, F_1 = 1, F_n = wF_(n−1) + F_(n−2), F_n(w) = Σ_j C(n−1−j, j) w^(n−1−2j).
+  Hence the closed form
+
+      P(σ^k) = A_k·P(σ^1) + B_k·P(σ^0),  A_k = u^(k−1) F_k(w),  B_k = u^k F_(k−1)(w),
+
+  (A_0, B_0) = (0, 1), (A_1, B_1) = (1, 0); σ^1 and σ^0 are the region with k − 1,
+  respectively all k, crossings smoothed.
+* Antiparallel strands (T_k): smoothing any crossing gives the same diagram D_∞ (the
+  region replaced by the other smoothing; its remaining crossings are kinks), switching
+  one and cancelling it against a neighbour leaves T_(k−2).  With m = ⌊k/2⌋,
+
+      P(T_k) = u^(2m)·P(T_(k mod 2)) + uw(1 + u² + … + u^(2m−2))·P(D_∞),
+
+  where T_(k mod 2) is the region with m neighbouring pairs removed straight through.
+
+Both are the skein of oriented rational tangles read on the diagram: a two-bridge,
+pretzel or Montesinos diagram is a union of twist regions, each reduced to at most one
+crossing in one step; regions that meet after a reduction (pretzel columns cut to one
+crossing form a new twist) are reduced in turn.  Every child has fewer crossings, so the
+processing order above stays valid and the memo keys are the same normal forms.
+``twists=False`` is the plain single-crossing tree (the slow reference in the tests).
+
+Budget: the number of diagrams expanded (a twist-region step, a Reidemeister II step and
+a single-crossing step each count one); over it raises BudgetExceeded('homfly', budget).
 """
 
 from __future__ import annotations
 
 import heapq
-from itertools import permutations
+from functools import lru_cache
+from math import comb
 from typing import Optional
 
-from ...diagrams.canonical import canonical_pd
+from ...diagrams.bigons import bigons, twist_chains
 from ...diagrams.diagram import Diagram
 from ...errors import BudgetExceeded
 from .hpoly import DELTA, HPoly
+from .surgery import (Cross, first_bad, normal_key, reduce_kinks, smooth, smooth_all,
+                      straight_through, switch)
 
-__all__ = ["homfly_general"]
-
-# A crossing is (a, b, c, d, sign): the PD tuple plus its sign, so orientation is explicit.
-Cross = tuple[int, int, int, int, int]
-
-
-def _moves(xs: list[Cross]) -> dict[int, tuple[int, bool, int]]:
-    """label -> (crossing, entered on the over-strand?, outgoing label)."""
-    nxt = {}
-    for i, (a, b, c, d, s) in enumerate(xs):
-        nxt[a] = (i, False, c)
-        if s > 0:
-            nxt[d] = (i, True, b)
-        else:
-            nxt[b] = (i, True, d)
-    return nxt
+__all__ = ["homfly_general", "parallel_twist_coefficients", "antiparallel_twist_coefficients"]
 
 
-def _components(xs: list[Cross]) -> list[list[int]]:
-    """Labels of each component in walk order, from its smallest label, ordered by it."""
-    nxt = _moves(xs)
-    seen, comps = set(), []
-    for start in sorted(nxt):
-        if start in seen:
-            continue
-        comp, e = [], start
-        while e not in seen:
-            seen.add(e)
-            comp.append(e)
-            e = nxt[e][2]
-        comps.append(comp)
-    return comps
+@lru_cache(maxsize=None)
+def parallel_twist_coefficients(k: int, sign: int) -> tuple[HPoly, HPoly]:
+    """(A_k, B_k) with P(σ^k) = A_k·P(σ^1) + B_k·P(σ^0) for k crossings of sign ``sign``
+    on parallel strands: A_k = u^(k−1)F_k(w), B_k = u^k F_(k−1)(w), u = v^sign, w = sign·z
+    (module docstring)."""
+    def fib(n: int) -> HPoly:  # F_n(w)·u^0 as a polynomial in z with the sign of w folded in
+        if n <= 0:
+            return HPoly()
+        return HPoly({(0, n - 1 - 2 * j): comb(n - 1 - j, j) * sign ** (n - 1 - 2 * j)
+                      for j in range((n - 1) // 2 + 1)})
+    return fib(k).shift(sign * (k - 1)), fib(k - 1).shift(sign * k)
 
 
-def _relabel(xs: list[Cross]) -> tuple[Cross, ...]:
-    m, k = {}, 1
-    for comp in _components(xs):
-        for e in comp:
-            m[e] = k
-            k += 1
-    return tuple(sorted((m[a], m[b], m[c], m[d], s) for a, b, c, d, s in xs))
+@lru_cache(maxsize=None)
+def antiparallel_twist_coefficients(k: int, sign: int) -> tuple[HPoly, HPoly]:
+    """(C, E) with P(T_k) = C·P(T_(k mod 2)) + E·P(D_∞) for k crossings of sign ``sign``
+    on antiparallel strands: C = u^(2m), E = uw·Σ_(i<m) u^(2i), m = ⌊k/2⌋, u = v^sign,
+    w = sign·z (module docstring)."""
+    m = k // 2
+    return (HPoly.monomial(2 * sign * m),
+            HPoly({(sign * (2 * i + 1), 1): sign for i in range(m)}))
 
 
-def _merge(xs: list[Cross], pairs, removed: set[int]) -> tuple[list[Cross], int]:
-    """Drop crossings ``removed``, identify the label pairs; return (crossings, new free loops)."""
-    parent: dict[int, int] = {}
-
-    def find(u):
-        while parent.get(u, u) != u:
-            u = parent[u]
-        return u
-
-    for u, w in pairs:
-        ru, rw = find(u), find(w)
-        if ru != rw:
-            parent[ru] = rw
-    rest = [x for i, x in enumerate(xs) if i not in removed]
-    new = [(find(a), find(b), find(c), find(d), s) for a, b, c, d, s in rest]
-    present = {v for x in new for v in x[:4]}
-    touched = {find(v) for i in removed for v in xs[i][:4]}
-    return new, len(touched - present)
-
-
-def _kink(xs: list[Cross]) -> Optional[int]:
-    for i, x in enumerate(xs):
-        for k in range(4):
-            if x[k] == x[(k + 1) % 4]:
-                return i
-    return None
+def _twist_children(xs: list[Cross], loops: int):
+    """[(child crossings, child loops, coefficient)] of the twist-region or Reidemeister II
+    step at this diagram, or None when it has neither (module docstring)."""
+    pd = [x[:4] for x in xs]
+    found = bigons(pd)
+    for b in found:
+        if b.removable:
+            ys, extra = straight_through(xs, (b.i, b.j))
+            return [(ys, loops + extra, HPoly.monomial())]
+    chains = twist_chains(pd, [x[4] for x in xs], found=found)
+    if not chains:
+        return None
+    ch = chains[0].crossings
+    k, sign = len(ch), xs[ch[0]][4]
+    if chains[0].parallel:
+        a, b = parallel_twist_coefficients(k, sign)
+        one, e1 = smooth_all(xs, ch[:-1])
+        zero, e0 = smooth_all(xs, ch)
+        return [(one, loops + e1, a), (zero, loops + e0, b)]
+    c, e = antiparallel_twist_coefficients(k, sign)
+    rest, er = straight_through(xs, ch[:2 * (k // 2)])
+    inf, ei = smooth(xs, ch[0])
+    return [(rest, loops + er, c), (inf, loops + ei, e)]
 
 
-def _reduce(xs: list[Cross], loops: int) -> tuple[list[Cross], int, bool]:
-    """Remove Reidemeister I kinks until none is left."""
-    changed = False
-    while (i := _kink(xs)) is not None:
-        x = xs[i]
-        k = next(k for k in range(4) if x[k] == x[(k + 1) % 4])
-        p, q = x[(k + 2) % 4], x[(k + 3) % 4]
-        xs, extra = _merge(xs, [(p, x[k]), (x[k], q)], {i})
-        loops += extra
-        changed = True
-    return xs, loops, changed
-
-
-def _normal(xs: list[Cross], loops: int) -> tuple[tuple[Cross, ...], int]:
-    """Orientation-respecting normal form (see the module docstring)."""
-    if not xs:
-        return (), loops
-    if len(_components(xs)) == 1:
-        d = Diagram.from_pd([x[:4] for x in _relabel(xs)])
-        pieces, _ = canonical_pd(d)
-        c = Diagram.from_pd(pieces[0])
-        return _best_base([x + (s,) for x, s in zip(c.pd, c.signs)]), loops
-    return _best_link_walk(xs), loops
-
-
-def _best_link_walk(xs: list[Cross]) -> tuple[Cross, ...]:
-    """A deterministic relabelling of a link diagram (labels consecutive along each
-    component) choosing the order of the components (all orders up to 4 components) and,
-    greedily per component, the base point, for the fewest bad crossings."""
-    comps = _components(xs)
-    orders = list(permutations(range(len(comps)))) if len(comps) <= 4 else [tuple(range(len(comps)))]
-    best = None
-    for order in orders:
-        shifts: list[int] = []
-        for k in range(len(order)):
-            choice = None
-            for r in range(len(comps[order[k]])):
-                ys = _label_walk(xs, comps, order[:k + 1], shifts + [r])
-                bad = _first_bad(ys)[1]
-                if choice is None or bad < choice[0]:
-                    choice = (bad, r)
-            shifts.append(choice[1])
-        ys = _label_walk(xs, comps, order, shifts)
-        bad = _first_bad(ys)[1]
-        if best is None or bad < best[0]:
-            best = (bad, ys)
-    return tuple(sorted(best[1]))
-
-
-def _label_walk(xs: list[Cross], comps: list[list[int]], order, shifts) -> list[Cross]:
-    """Labels 1, 2, … along the components in ``order``, each started ``shifts`` steps in;
-    components not yet placed keep labels after all placed ones (in their old order)."""
-    m, k = {}, 1
-    placed = list(order) + [i for i in range(len(comps)) if i not in order]
-    for j, ci in enumerate(placed):
-        comp = comps[ci]
-        r = shifts[j] if j < len(shifts) else 0
-        for t in range(len(comp)):
-            m[comp[(r + t) % len(comp)]] = k
-            k += 1
-    return [(m[a], m[b], m[c], m[d], sg) for a, b, c, d, sg in xs]
-
-
-def _best_base(xs: list[Cross]) -> tuple[Cross, ...]:
-    """Of the cyclic relabellings of a one-component diagram (labels 1..N along it), the
-    one whose walk from label 1 meets the fewest crossings first from below (ties: the
-    smallest shift).  A function of the canonical form, so still a normal form; fewer bad
-    crossings means a smaller skein tree."""
-    n = 2 * len(xs)
-    best = None
-    for r in range(n):
-        ys = [tuple((v - 1 - r) % n + 1 for v in x[:4]) + (x[4],) for x in xs]
-        bad = _first_bad(ys)[1]
-        if best is None or bad < best[0]:
-            best = (bad, ys)
-    return tuple(sorted(best[1]))
-
-
-def _first_bad(xs: list[Cross]) -> tuple[Optional[int], int, int]:
-    """(first crossing met first on the under-strand, number of such, components)."""
-    nxt = _moves(xs)
-    comps = _components(xs)
-    seen: set[int] = set()
-    first, bad = None, 0
-    for comp in comps:
-        for e in comp:
-            i, over, _ = nxt[e]
-            if i not in seen:
-                seen.add(i)
-                if not over:
-                    bad += 1
-                    if first is None:
-                        first = i
-    return first, bad, len(comps)
-
-
-def _switch(x: Cross) -> Cross:
-    a, b, c, d, s = x
-    return (d, a, b, c, -1) if s > 0 else (b, c, d, a, 1)
-
-
-def _smooth(xs: list[Cross], i: int) -> tuple[list[Cross], int]:
-    a, b, c, d, s = xs[i]
-    return _merge(xs, [(a, b), (d, c)] if s > 0 else [(a, d), (b, c)], {i})
-
-
-def homfly_general(diagram: Diagram, *, budget: Optional[int] = None) -> HPoly:
+def homfly_general(diagram: Diagram, *, budget: Optional[int] = None, twists: bool = True) -> HPoly:
     """HOMFLY-PT polynomial of any diagram by the memoised skein tree (module docstring).
 
     Parameters
@@ -230,6 +140,9 @@ def homfly_general(diagram: Diagram, *, budget: Optional[int] = None) -> HPoly:
         Oriented link diagram (orientation of each component matters for links).
     budget : int, optional
         Maximal number of diagrams expanded; exceeded -> ``BudgetExceeded('homfly', budget)``.
+    twists : bool
+        Reduce whole twist regions (and Reidemeister II bigons) in one step (default);
+        False: one crossing per step, the slow reference route.
 
     Returns
     -------
@@ -237,8 +150,8 @@ def homfly_general(diagram: Diagram, *, budget: Optional[int] = None) -> HPoly:
         P(v, z) with v⁻¹P(L₊) − vP(L₋) = zP(L₀), P(unknot) = 1.
     """
     xs0 = [x + (s,) for x, s in zip(diagram.pd, diagram.signs)]
-    xs0, loops0, _ = _reduce(xs0, diagram.free_loops)
-    key0 = _normal(xs0, loops0)
+    xs0, loops0, _ = reduce_kinks(xs0, diagram.free_loops)
+    key0 = normal_key(xs0, loops0)
     table: dict = {key0: HPoly.monomial()}
     heap: list = []
 
@@ -247,11 +160,9 @@ def homfly_general(diagram: Diagram, *, budget: Optional[int] = None) -> HPoly:
             table[key] = table[key] + coeff
             return
         table[key] = coeff
-        first, bad, _ = _first_bad(list(key[0]))
-        heapq.heappush(heap, (-len(key[0]), -bad, key))
+        heapq.heappush(heap, (-len(key[0]), -first_bad(list(key[0]))[1], key))
 
-    first, bad, _ = _first_bad(list(key0[0]))
-    heap.append((-len(key0[0]), -bad, key0))
+    heap.append((-len(key0[0]), -first_bad(list(key0[0]))[1], key0))
     total = HPoly()
     expanded = 0
     while heap:
@@ -263,18 +174,24 @@ def homfly_general(diagram: Diagram, *, budget: Optional[int] = None) -> HPoly:
         if budget is not None and expanded > budget:
             raise BudgetExceeded("homfly", budget)
         xs, loops = list(key[0]), key[1]
-        first, bad, ncomp = _first_bad(xs)
+        first, bad, ncomp = first_bad(xs)
         if first is None:
             total = total + coeff * DELTA ** (ncomp + loops - 1)
             continue
+        kids = _twist_children(xs, loops) if twists else None
+        if kids is not None:
+            for ys, ys_loops, c in kids:
+                ys, ys_loops, _ = reduce_kinks(ys, ys_loops)
+                push(normal_key(ys, ys_loops), coeff * c)
+            continue
         s = xs[first][4]
         sw = list(xs)
-        sw[first] = _switch(xs[first])
-        sw_r, sw_loops, changed = _reduce(sw, loops)
-        sw_key = _normal(sw_r, sw_loops) if changed else (tuple(sorted(sw)), loops)
-        sm, extra = _smooth(xs, first)
-        sm, sm_loops, _ = _reduce(sm, loops + extra)
-        sm_key = _normal(sm, sm_loops)
+        sw[first] = switch(xs[first])
+        sw_r, sw_loops, changed = reduce_kinks(sw, loops)
+        sw_key = normal_key(sw_r, sw_loops) if changed else (tuple(sorted(sw)), loops)
+        sm, extra = smooth(xs, first)
+        sm, sm_loops, _ = reduce_kinks(sm, loops + extra)
+        sm_key = normal_key(sm, sm_loops)
         if s > 0:
             push(sw_key, coeff.shift(2))
             push(sm_key, coeff.shift(1, 1))
