@@ -88,9 +88,9 @@ def parallel_twist_coefficients(k: int, sign: int) -> tuple[HPoly, HPoly]:
     """(A_k, B_k) with P(σ^k) = A_k·P(σ^1) + B_k·P(σ^0) for k crossings of sign ``sign``
     on parallel strands: A_k = u^(k−1)F_k(w), B_k = u^k F_(k−1)(w), u = v^sign, w = sign·z
     (module docstring)."""
-    def fib(n: int) -> HPoly:  # F_n(w)·u^0 as a polynomial in z with the sign of w folded in
-        if n <= 0:
-            return HPoly()
+    def fib(n: int) -> HPoly:  # F_n(w) as a polynomial in z (the sign of w folded in)
+        if n <= 0:  # F_0 = 0, F_(−1) = F_1 − wF_0 = 1
+            return HPoly() if n == 0 else HPoly.monomial()
         return HPoly({(0, n - 1 - 2 * j): comb(n - 1 - j, j) * sign ** (n - 1 - 2 * j)
                       for j in range((n - 1) // 2 + 1)})
     return fib(k).shift(sign * (k - 1)), fib(k - 1).shift(sign * k)
