@@ -8,7 +8,8 @@ the fast routes and normal forms read.
 Modules: :mod:`.diagram` (the type), :mod:`.plane` (faces, pieces, planarity of a
 PD code), :mod:`.builder` (planar construction and tangle
 calculus), :mod:`.notation` (parsing every notation), :mod:`.dt` (DT codes),
-:mod:`.canonical` (the canonical text behind ``diagram_id``), :mod:`.families` (one
+:mod:`.canonical` (the canonical text behind ``diagram_id``), :mod:`.bigons` (bigon
+faces and twist regions of a PD code), :mod:`.families` (one
 generator per family).  Imports nothing from the stages above.
 """
 

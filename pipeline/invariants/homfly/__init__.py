@@ -3,7 +3,11 @@
 So V(t) = P(v = t, z = t^½ − t^−½) and ∇(z) = P(1, z); the positive trefoil has
 P = 2v² − v⁴ + v²z².  Routes:
 
-``skein``   general route, any diagram: memoised skein tree to descending diagrams
+``skein``   general route, any diagram: memoised skein tree to descending diagrams,
+            a whole twist region (closed forms for parallel / antiparallel strands) or
+            a Reidemeister II bigon per step, one crossing per step when neither is left
+``surgery`` the signed crossing lists of the skein tree: smoothing, switching,
+            straight-through removal, kinks, and the orientation-respecting memo keys
 ``hecke``   braid closures (``braid:``, ``torus:``): Hecke-algebra transfer matrix with
             the Ocneanu trace, polynomial in the length for a fixed number of strands
 ``hpoly``   the exact two-variable Laurent polynomial type and its specialisations
