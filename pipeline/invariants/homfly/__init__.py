@@ -59,7 +59,7 @@ def _two_strand_knot(text: "str | Notation") -> Optional[tuple[list[int], int]]:
     pins ``rational:a/1`` = ``torus:2,a``); ``conway:a`` is ``rational:a/1``.  Only knots
     (a odd): P of a knot does not depend on its orientation, while the 4-plat picture of
     T(2, a) for even a may orient the two components otherwise than the braid closure.
-    The skein route is slow on this one long twist region, the Hecke route linear.
+    The Hecke route is linear in a (the skein route needs its twist step for this one region).
     """
     note = parse_notation(text) if isinstance(text, str) else text
     if note.kind == "rational":

@@ -18,7 +18,7 @@ D, so D' has one bad crossing fewer; D₀ has one crossing fewer.  Kinks (Reidem
 are removed for free (P is an isotopy invariant).
 
 Memoisation: diagrams are merged in a table keyed by an orientation-respecting normal
-form, and processed in decreasing order of (crossings, bad crossings), which every
+form (:func:`.surgery.normal_key`), and processed in decreasing order of (crossings, bad crossings), which every
 child lowers, so each diagram is expanded once with all its coefficients collected (no
 recursion).  The key is the PD code relabelled along the components; for a diagram with
 one component (plus free loops) it is :func:`pipeline.diagrams.canonical.canonical_pd`,
@@ -55,9 +55,11 @@ sign ε reads P(D) = u²P(D switched) + uw·P(D smoothed).
 
   where T_(k mod 2) is the region with m neighbouring pairs removed straight through.
 
-Both are the skein of oriented rational tangles read on the diagram: a two-bridge,
-pretzel or Montesinos diagram is a union of twist regions, each reduced to at most one
-crossing in one step; regions that meet after a reduction (pretzel columns cut to one
+Both are the skein of oriented rational tangles (the twist recursion of the tangle
+calculus, J. H. Conway, "An enumeration of knots and links, and some of their algebraic
+properties", Computational Problems in Abstract Algebra, Pergamon 1970) read on the
+diagram: a two-bridge, pretzel or Montesinos diagram is a union of twist regions, each
+reduced to at most one crossing in one step; regions that meet after a reduction (pretzel columns cut to one
 crossing form a new twist) are reduced in turn.  Every child has fewer crossings, so the
 processing order above stays valid and the memo keys are the same normal forms.
 ``twists=False`` is the plain single-crossing tree (the slow reference in the tests).
