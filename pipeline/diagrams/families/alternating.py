@@ -56,16 +56,13 @@ References
 from __future__ import annotations
 
 import random
-from functools import lru_cache
 from typing import Iterator
 
 from ...errors import NotationError
-from ..canonical import canonical_text
 from ..diagram import Diagram
-from ..flype import _order, diagram_of_code
-from ..flype_circuits import twist_count
-from ..shadow import (alternating_codes, alternating_over, apply_shadow_flype, extensions,
-                      n_components, prime_reduced, shadow_flypes, to_diagram, twins)
+from ..flype import _order, diagram_of_code, flype_codes
+from ..shadow import alternating_codes, alternating_over, extensions, n_components, prime_reduced, to_diagram, twins
+from ..shadow_canonical import NEW_SMOOTHING, one_flype_fewer_regions, shadow_code, smoothing
 
 __all__ = ["MIN_CROSSINGS", "MAX_CROSSINGS", "codes", "diagrams", "diagram", "from_notation",
            "random_diagram"]
@@ -75,94 +72,113 @@ MAX_CROSSINGS = 16
 
 
 # ---------------------------------------------------------------------- shadows
-def _key(tw: list[int]) -> tuple[int, ...]:
-    """The shadow up to every homeomorphism of the sphere (the smaller mirror code)."""
-    return min(alternating_codes(tw, alternating_over(tw)))
+def _hopf() -> list[int]:
+    """The Hopf shadow (two crossings, Tait graph two parallel edges)."""
+    return twins(Diagram.from_pd([(4, 1, 3, 2), (2, 3, 1, 4)]))
 
 
-@lru_cache(maxsize=None)
-def _level(n: int) -> tuple[tuple[int, ...], ...]:
-    """Every prime reduced shadow with n >= 2 crossings (twin arrays), by key."""
-    if n == 2:
-        return (tuple(twins(Diagram.from_pd([(4, 1, 3, 2), (2, 3, 1, 4)]))),)
-    found: dict[tuple[int, ...], tuple[int, ...]] = {}
-    for tw in _level(n - 1):
-        for new in extensions(list(tw)):
-            if prime_reduced(new):
-                k = _key(new)
-                if k not in found:
-                    found[k] = tuple(new)
-    return tuple(found[k] for k in sorted(found))
+def _smoothing_type(ref: int, eps: int, tp: int) -> int:
+    """The smoothing type (:func:`smoothing`'s t) joining the labelled slot positions
+    (tp, tp + 1) and (tp + 2, tp + 3) of a crossing with entry slot ``ref``."""
+    return (ref + tp) & 1 if eps == 1 else (ref - tp - 1) & 1
 
 
-def _last_level(n: int, one_component: bool) -> Iterator[list[int]]:
-    """The shadows of the last level with (or without) one component, deduplicated."""
-    seen: set[tuple[int, ...]] = set()
-    for tw in _level(n - 1):
-        for new in extensions(list(tw)):
-            if (n_components(new) == 1) == one_component and prime_reduced(new):
-                k = _key(new)
-                if k not in seen:
-                    seen.add(k)
-                    yield new
+def _canonical_child(tw: list[int], x: int) -> tuple[tuple[int, ...], bool]:
+    """(shadow code, whether smoothing crossing ``x`` back is the canonical deletion).
 
-
-def _classes(shadows: list[list[int]]) -> list[str]:
-    """Flype classes up to mirror of the alternating diagrams on ``shadows``.
-
-    Returns the code of each class: the canonical text of the alternating diagram (or
-    its mirror) with the fewest twist regions and then the smallest alternating map
-    code in the class (the rule of :func:`pipeline.diagrams.flype.flype_code`).
+    The canonical deletion is the first (crossing, smoothing) in the canonical
+    labelling (crossing number, then labelled type 0, 1) whose smoothing is prime and
+    reduced; the added crossing qualifies iff some best start labels it so.
     """
-    keys = {}
-    best = {}
-    for tw in shadows:
-        over = alternating_over(tw)
-        c0, c1 = alternating_codes(tw, over)
-        k = min(c0, c1)
-        keys[k] = (tw, over)
-        tc = twist_count(tw)  # the class code: fewest twist regions first (flype_code)
-        best[k] = ((tc, c0), False) if c0 <= c1 else ((tc, c1), True)
-    parent = {k: k for k in keys}
+    code, labels = shadow_code(tw)
+    order, ref, eps = labels[0]
+    for q in range(len(order)):
+        for tp in (0, 1):
+            s = smoothing(tw, order[q], _smoothing_type(ref[q], eps, tp))
+            if s is not None and prime_reduced(s):
+                return code, any(o[q] == x and _smoothing_type(r[q], e, tp) == NEW_SMOOTHING
+                                 for o, r, e in labels)
+    return code, False  # no prime reduced smoothing: impossible for >= 3 crossings (Tutte)
 
-    def find(k):
-        while parent[k] != k:
-            parent[k] = parent[parent[k]]
-            k = parent[k]
-        return k
 
-    for k, (tw, over) in keys.items():
-        for m in shadow_flypes(tw):
-            tw2, _ = apply_shadow_flype(tw, over, m)
-            a, b = find(k), find(_key(tw2))
-            if a != b:
-                parent[max(a, b)] = min(a, b)
-    out = {}
-    for k in keys:
-        r = find(k)
-        if r not in out or best[k] < best[out[r]]:
-            out[r] = k
-    codes = []
-    for k in out.values():
-        tw, over = keys[k]
-        flip = best[k][1]
-        codes.append(canonical_text(to_diagram(tw, [o != flip for o in over])))
-    return sorted(codes, key=_order)
+def _shadows(n: int, keep=None) -> Iterator[tuple[list[int], tuple[int, ...]]]:
+    """(twins, shadow code) of every prime reduced shadow with n >= 2 crossings, once each.
+
+    Depth first by canonical augmentation (module notes); ``keep`` filters the last
+    level before the canonical test (e.g. one component).
+    """
+    if n == 2:
+        tw = _hopf()
+        if keep is None or keep(tw):
+            yield tw, shadow_code(tw)[0]
+        return
+
+    def grow(tw: list[int]):
+        m = len(tw) // 4 + 1
+        seen = set()          # the accepted children of this parent (automorphic extensions)
+        for new in extensions(tw):
+            if m == n and keep is not None and not keep(new):
+                continue
+            if not prime_reduced(new):
+                continue
+            code, ok = _canonical_child(new, m - 1)
+            if not ok or code in seen:
+                continue
+            seen.add(code)
+            if m == n:
+                yield new, code
+            else:
+                yield from grow(new)
+
+    yield from grow(_hopf())
+
+
+def _class_code(tw: list[int], code: tuple[int, ...]) -> str | None:
+    """The type's code when the shadow ``tw`` (shadow code ``code``) is its canonical
+    member (the shadow of the code's diagram), else None.
+
+    Shadows that one flype takes to fewer twist regions are passed over without a
+    flype search; that is only a shortcut if the canonical member never is such a
+    shadow, which is checked on every code found (a code's diagram that fails it
+    raises, instead of a type silently missing).
+    """
+    if one_flype_fewer_regions(tw):
+        return None
+    a, b = flype_codes(to_diagram(tw, alternating_over(tw)))
+    if a != b:
+        da, db = diagram_of_code(a), diagram_of_code(b)
+        if alternating_codes(twins(db), [True] * db.n_crossings)[0] < \
+                alternating_codes(twins(da), [True] * da.n_crossings)[0]:
+            a = b
+    best = twins(diagram_of_code(a))
+    if one_flype_fewer_regions(best):
+        raise AssertionError("alternating: a class code's diagram is not a fewest-twist-region member "
+                             "(the shortcut of _class_code no longer holds)")
+    return a if shadow_code(best)[0] == code else None
+
+
+_CACHE: dict[tuple[int, bool], tuple[str, ...]] = {}
+
+
+def _codes(n: int, one_component: bool) -> tuple[str, ...]:
+    """The sorted codes of the knots (``one_component``) or links with n crossings."""
+    if (n, one_component) not in _CACHE:
+        knots, links = [], []
+        keep = (lambda tw: n_components(tw) == 1) if one_component else None
+        for tw, code in (_shadows(n, keep) if n >= 2 else ()):
+            c = _class_code(tw, code)
+            if c is not None:
+                (knots if n_components(tw) == 1 else links).append(c)
+        _CACHE[n, True] = tuple(sorted(knots, key=_order))
+        if not one_component:
+            _CACHE[n, False] = tuple(sorted(links, key=_order))
+    return _CACHE[n, one_component]
 
 
 def _check_n(n: int) -> None:
     if isinstance(n, bool) or not isinstance(n, int) or not MIN_CROSSINGS <= n <= MAX_CROSSINGS:
         raise NotationError(
             f"alternating: crossings = {n!r} is outside [{MIN_CROSSINGS}, {MAX_CROSSINGS}]")
-
-
-@lru_cache(maxsize=None)
-def _codes(n: int, one_component: bool) -> tuple[str, ...]:
-    if n < 2:
-        return ()
-    if n == 2:
-        return () if one_component else tuple(_classes([list(t) for t in _level(2)]))
-    return tuple(_classes(list(_last_level(n, one_component))))
 
 
 def codes(n: int, *, links: bool = False) -> list[str]:
@@ -229,7 +245,7 @@ def random_diagram(n: int, *, seed: int = 0) -> Diagram:
     if isinstance(n, bool) or not isinstance(n, int) or n < 2:
         raise NotationError(f"alternating: random diagram size {n!r} must be an integer >= 2")
     rng = random.Random(seed)
-    tw = list(_level(2)[0])
+    tw = _hopf()
     while len(tw) < 4 * n:
         options = list(extensions(tw))
         rng.shuffle(options)
