@@ -10,9 +10,10 @@ both rotation senses, so it names the shadow up to every homeomorphism of the sp
 
 from __future__ import annotations
 
-from .shadow import apply_shadow_flype, faces, shadow_flypes
+from .shadow import alternating_codes, alternating_over, apply_shadow_flype, faces, shadow_flypes
 
-__all__ = ["NEW_SMOOTHING", "smoothing", "shadow_code", "twist_region_count", "one_flype_fewer_regions"]
+__all__ = ["NEW_SMOOTHING", "smoothing", "shadow_code", "twist_region_count", "shadow_order_key",
+           "flype_local_minimum"]
 
 #: The smoothing of the crossing added by :func:`pipeline.diagrams.shadow.extensions` that gives its parent back.
 NEW_SMOOTHING = 1
@@ -143,9 +144,22 @@ def twist_region_count(tw: list[int]) -> int:
     return regions
 
 
-def one_flype_fewer_regions(tw: list[int]) -> bool:
-    """True when one flype (:func:`pipeline.diagrams.shadow.shadow_flypes`) leads to a
-    shadow with fewer twist regions (so the shadow does not have the fewest of its class)."""
-    here = twist_region_count(tw)
-    over = [True] * (len(tw) // 4)
-    return any(twist_region_count(apply_shadow_flype(tw, over, m)[0]) < here for m in shadow_flypes(tw))
+def shadow_order_key(tw: list[int], over: list[bool]) -> tuple[int, tuple[int, ...]]:
+    """(twist regions, smaller alternating map code of the two mirror diagrams): the order
+    in which the class code of :func:`pipeline.diagrams.flype.flype_code` (up to mirror
+    image) is the smallest member."""
+    return twist_region_count(tw), min(alternating_codes(tw, over))
+
+
+def flype_local_minimum(tw: list[int]) -> bool:
+    """True when no one flype (:func:`pipeline.diagrams.shadow.shadow_flypes`) leads to a
+    shadow smaller in :func:`shadow_order_key` (a necessary condition for the smallest
+    member of a flype class)."""
+    over = alternating_over(tw)
+    here = shadow_order_key(tw, over)
+    for m in shadow_flypes(tw):
+        tw2, over2 = apply_shadow_flype(tw, over, m)
+        tc = twist_region_count(tw2)
+        if tc < here[0] or (tc == here[0] and min(alternating_codes(tw2, over2)) < here[1]):
+            return False
+    return True

@@ -9,21 +9,47 @@ image.  The alternating diagram is reduced and visibly prime iff G is 2-connecte
 circle meeting the diagram twice).  For a 2-connected G with at least three edges
 and every edge e, G − e or G / e is 2-connected (W. T. Tutte, "Graph theory",
 Addison-Wesley 1984, ch. III: deletion/contraction of 2-connected graphs), and both
-correspond to *smoothing* the crossing of e in the medial.  So every prime reduced
-shadow with n crossings arises from one with n − 1 crossings by the inverse move:
-inside a face, pull two of its boundary edges together into a new crossing.  We grow
-all prime reduced shadows from the Hopf shadow (G = two parallel edges), level by
-level, and deduplicate by the alternating map code of the shadow
-(:func:`pipeline.diagrams.shadow.alternating_codes`, the smaller of the diagram's and
-its mirror's, so a shadow is taken up to every homeomorphism of the sphere).
+correspond to *smoothing* the crossing of e in the medial.  So every prime reduced shadow with
+n >= 3 crossings arises from one with n − 1 crossings by the inverse move
+(:func:`pipeline.diagrams.shadow.extensions`: inside a face, pull two of its boundary
+edges together into a new crossing).
 
-At the last level the one-component shadows (or all, for links) are grouped into
-flype classes up to mirror image: two shadows are joined when a flype
-(:mod:`pipeline.diagrams.flype`) or the mirror takes one alternating diagram to the
-other.  By the flyping theorem (W. Menasco, M. Thistlethwaite, Annals of Math. 138,
-1993) the groups are exactly the prime alternating link types up to mirror image,
-and every flype of an enumerated diagram is again an enumerated diagram, so the
-union of one-step flypes finds whole classes.
+Canonical augmentation (B. D. McKay, "Isomorph-free exhaustive generation",
+J. Algorithms 26 (1998) 306–324).  The shadows are grown depth first from the Hopf
+shadow (G = two parallel edges) and nothing of a level is stored.  A child C (n
+crossings, prime reduced) of a parent P is accepted iff (i) the pair (new crossing x,
+the smoothing of x that gives P back) is, under an automorphism of C, the *canonical
+deletion* of C, and (ii) no automorphic extension of the same P was accepted before
+(a set of the accepted children's codes of this one parent).  The canonical deletion
+is read off the canonical labelling of C
+(:func:`pipeline.diagrams.shadow_canonical.shadow_code`: the smallest map code over
+every start, with every start reaching it, i.e. one orbit of Aut(C)): the first
+(crossing number, smoothing type) in that labelling whose smoothing is prime and
+reduced.  *Every shadow is produced exactly once*, by induction on n (n = 2: the Hopf
+shadow alone):
+
+* at least once: C has a prime reduced smoothing (the lemma above, n >= 3), so its
+  canonical deletion (c*, t*) exists and smooths C to a prime reduced P*, which by
+  induction is isomorphic to exactly one generated P; the isomorphism carries the
+  inverse move to an extension of P that gives a copy of C whose added crossing is
+  the image of c*, so (i) holds for it; (ii) can only drop it if an isomorphic child of
+  the same P was accepted already;
+* at most once: if C is accepted from P1 and from P2, both added pairs are in the
+  orbit of the canonical deletion, so P1 ≅ P2 (smoothing an orbit of pairs gives one
+  shadow up to isomorphism), hence P1 = P2 by induction, and (ii) keeps one child.
+
+At the last level the one-component shadows (or all, for links) are taken.  A type's
+*canonical member* is the shadow of its code's diagram (below); a shadow is emitted
+only when it is the canonical member of its own flype class (its
+:func:`pipeline.diagrams.flype.flype_codes` give the type's code, whose diagram's
+shadow code equals its own), so classes need no table: each type is emitted from
+exactly one shadow.  By the flyping theorem (W. Menasco, M. Thistlethwaite, Annals of
+Math. 138, 1993) flype classes up to mirror image are exactly the prime alternating
+link types up to mirror image.  Shortcut: a shadow that one flype takes to fewer twist
+regions, or to as many and a smaller alternating map code, is not searched (under the
+rule of ``flype_code`` the code's diagram is the smallest member of its class in that
+order); every code found is checked to come from a shadow that passes this test, so a
+change of that rule raises instead of losing types.
 
 Order (documented, deterministic)
 ---------------------------------
@@ -37,12 +63,15 @@ links (components > 1) sorted the same way.  The order depends only on the codes
 not on the generation.
 
 Counts checked in the tests: 1, 1, 2, 3, 7, 18, 41, 123 prime alternating knots for
-n = 3…10 (J. Hoste, M. Thistlethwaite, J. Weeks, "The first 1,701,936 knots",
-Math. Intelligencer 20, 1998).
+n = 3…10; the benchmark also reaches 367, 1288, 4878 for n = 11, 12, 13 (J. Hoste,
+M. Thistlethwaite, J. Weeks, "The first 1,701,936 knots", Math. Intelligencer 20,
+1998).
 
-Memory: the levels below n are held in memory (a few MB through 11 crossings); the
-classes of the last level are formed before the first row is yielded, so this is
-not a constant-memory stream (see reports/bench_flype.md).
+Memory: the generation holds only the current path of the depth-first search (at
+most n parents with their pending extensions and the codes of their accepted
+children) — flat in n.  To sort the types, the codes of level n are held (a list of
+``pd:`` texts, about 0.5 MB for 4878 knots at n = 13) and cached per (n, links) for
+:func:`diagram`; measured in reports/bench_alternating_enum.md.
 
 References
 ----------
@@ -51,6 +80,7 @@ References
 2. J. Hoste, M. Thistlethwaite, J. Weeks, "The first 1,701,936 knots",
    Math. Intelligencer 20 (1998) 33–48.
 3. W. T. Tutte, "Graph theory", Addison-Wesley (1984).
+4. B. D. McKay, "Isomorph-free exhaustive generation", J. Algorithms 26 (1998) 306–324.
 """
 
 from __future__ import annotations
@@ -62,7 +92,7 @@ from ...errors import NotationError
 from ..diagram import Diagram
 from ..flype import _order, diagram_of_code, flype_codes
 from ..shadow import alternating_codes, alternating_over, extensions, n_components, prime_reduced, to_diagram, twins
-from ..shadow_canonical import NEW_SMOOTHING, one_flype_fewer_regions, shadow_code, smoothing
+from ..shadow_canonical import NEW_SMOOTHING, flype_local_minimum, shadow_code, smoothing
 
 __all__ = ["MIN_CROSSINGS", "MAX_CROSSINGS", "codes", "diagrams", "diagram", "from_notation",
            "random_diagram"]
@@ -137,12 +167,15 @@ def _class_code(tw: list[int], code: tuple[int, ...]) -> str | None:
     """The type's code when the shadow ``tw`` (shadow code ``code``) is its canonical
     member (the shadow of the code's diagram), else None.
 
-    Shadows that one flype takes to fewer twist regions are passed over without a
-    flype search; that is only a shortcut if the canonical member never is such a
-    shadow, which is checked on every code found (a code's diagram that fails it
-    raises, instead of a type silently missing).
+    Only shadows that no one flype makes smaller in
+    :func:`~pipeline.diagrams.shadow_canonical.shadow_order_key` are searched: the code's
+    diagram is the smallest member of its class in that order (the rule of
+    ``flype_code``), hence such a shadow.  That shortcut is checked on every code found
+    (a code's diagram failing it raises instead of a type silently missing): with it,
+    the smallest member of every class is searched, its code's shadow passes, and so
+    every type is emitted from that shadow, whatever member ``flype_code`` names.
     """
-    if one_flype_fewer_regions(tw):
+    if not flype_local_minimum(tw):
         return None
     a, b = flype_codes(to_diagram(tw, alternating_over(tw)))
     if a != b:
@@ -151,9 +184,9 @@ def _class_code(tw: list[int], code: tuple[int, ...]) -> str | None:
                 alternating_codes(twins(da), [True] * da.n_crossings)[0]:
             a = b
     best = twins(diagram_of_code(a))
-    if one_flype_fewer_regions(best):
-        raise AssertionError("alternating: a class code's diagram is not a fewest-twist-region member "
-                             "(the shortcut of _class_code no longer holds)")
+    if not flype_local_minimum(best):
+        raise RuntimeError("alternating: a class code's diagram is not a flype-local minimum "
+                           "(the shortcut of _class_code no longer holds)")
     return a if shadow_code(best)[0] == code else None
 
 
