@@ -12,7 +12,7 @@ from __future__ import annotations
 
 from .shadow import alternating_codes, alternating_over, apply_shadow_flype, faces, shadow_flypes
 
-__all__ = ["NEW_SMOOTHING", "smoothing", "shadow_code", "twist_region_count", "shadow_order_key",
+__all__ = ["NEW_SMOOTHING", "smoothing", "start_invariants", "shadow_code", "twist_region_count", "shadow_order_key",
            "flype_local_minimum"]
 
 #: The smoothing of the crossing added by :func:`pipeline.diagrams.shadow.extensions` that gives its parent back.
@@ -75,34 +75,48 @@ def _walk_full(tw: list[int], h: int, eps: int, best):
     return code, order, ref
 
 
-def shadow_code(tw: list[int]) -> tuple[tuple[int, ...], list[tuple[list[int], list[int], int]]]:
-    """The canonical code of a connected shadow up to every homeomorphism of the sphere,
-    and the labelling ``(order, ref, eps)`` of every start that reaches it.
-
-    The code is the smallest map code (:func:`alternating_codes`' walk) over all starts
-    and both rotation senses; the starts are pre-selected by the corner degrees of the
-    start crossing and of the far end of the start dart (an invariant choice).  Two
-    starts with the same code differ by an automorphism of the shadow and every
-    automorphism maps a best start to a best start, so the labellings returned are
-    exactly one orbit of the automorphism group: ``order[q]`` is the crossing numbered
-    q, ``ref[q]`` its entry slot, ``eps`` the rotation sense.  (The pre-selection is
-    not that of :func:`alternating_codes`, so the two codes are different names.)
-    """
+def start_invariants(tw: list[int]) -> dict[tuple[int, int], int]:
+    """An isomorphism invariant of every start (dart h, rotation sense eps): the degrees
+    of the four corner faces at h's crossing and at the far end of h, read from the
+    start slot in the sense eps, as one integer (compared like the digit sequence)."""
     face = faces(tw)
     deg = [0] * (max(face) + 1)
     for f in face:
         deg[f] += 1
     dg = [deg[f] for f in face]
+    base = max(dg) + 1
     size = len(tw)
-    inv = {}
+    ccw, cw = [0] * size, [0] * size
     for h in range(size):
         q, r = h & ~3, h & 3
+        x = y = 0
+        for m in range(4):
+            x = x * base + dg[q + ((r + m + 1) & 3)]
+            y = y * base + dg[q + ((r - m) & 3)]
+        ccw[h], cw[h] = x, y
+    b4 = base ** 4
+    inv = {}
+    for h in range(size):
         g = tw[h]
-        p, s = g & ~3, g & 3
-        for eps in (1, -1):
-            a = tuple(dg[q + ((r + eps * m + (1 if eps == 1 else 0)) & 3)] for m in range(4))
-            b = tuple(dg[p + ((s + eps * m + (1 if eps == 1 else 0)) & 3)] for m in range(4))
-            inv[h, eps] = (a, b)
+        inv[h, 1] = ccw[h] * b4 + ccw[g]
+        inv[h, -1] = cw[h] * b4 + cw[g]
+    return inv
+
+
+def shadow_code(tw: list[int], inv: dict | None = None
+                ) -> tuple[tuple[int, ...], list[tuple[list[int], list[int], int]]]:
+    """The canonical code of a connected shadow up to every homeomorphism of the sphere,
+    and the labelling ``(order, ref, eps)`` of every start that reaches it.
+
+    The code is the smallest map code (:func:`pipeline.diagrams.shadow.alternating_codes`'
+    walk) over the starts with the smallest :func:`start_invariants` (``inv``, when
+    already computed).  Two starts with the same code differ by an automorphism of the
+    shadow and every automorphism maps a best start to a best start, so the labellings
+    returned are exactly one orbit of the automorphism group: ``order[q]`` is the
+    crossing numbered q, ``ref[q]`` its entry slot, ``eps`` the rotation sense.  (The
+    pre-selection is not that of ``alternating_codes``: the two codes are different names.)
+    """
+    inv = start_invariants(tw) if inv is None else inv
     low = min(inv.values())
     best, found = None, []
     for (h, eps), v in inv.items():
@@ -112,8 +126,6 @@ def shadow_code(tw: list[int]) -> tuple[tuple[int, ...], list[tuple[list[int], l
         if w is None:
             continue
         if best is None or w[0] != best:
-            if best is not None and w[0] > best:
-                continue
             best, found = w[0], []
         found.append((w[1], w[2], eps))
     return tuple(best), found
@@ -156,10 +168,16 @@ def flype_local_minimum(tw: list[int]) -> bool:
     shadow smaller in :func:`shadow_order_key` (a necessary condition for the smallest
     member of a flype class)."""
     over = alternating_over(tw)
-    here = shadow_order_key(tw, over)
-    for m in shadow_flypes(tw):
+    here = twist_region_count(tw)
+    ties = []
+    for m in shadow_flypes(tw):                       # first the cheap test: fewer regions
         tw2, over2 = apply_shadow_flype(tw, over, m)
         tc = twist_region_count(tw2)
-        if tc < here[0] or (tc == here[0] and min(alternating_codes(tw2, over2)) < here[1]):
+        if tc < here:
             return False
+        if tc == here:
+            ties.append((tw2, over2))
+    if ties:
+        code = min(alternating_codes(tw, over))
+        return not any(min(alternating_codes(tw2, over2)) < code for tw2, over2 in ties)
     return True

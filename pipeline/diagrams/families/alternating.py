@@ -23,9 +23,11 @@ deletion* of C, and (ii) no automorphic extension of the same P was accepted bef
 (a set of the accepted children's codes of this one parent).  The canonical deletion
 is read off the canonical labelling of C
 (:func:`pipeline.diagrams.shadow_canonical.shadow_code`: the smallest map code over
-every start, with every start reaching it, i.e. one orbit of Aut(C)): the first
-(crossing number, smoothing type) in that labelling whose smoothing is prime and
-reduced.  *Every shadow is produced exactly once*, by induction on n (n = 2: the Hopf
+every start, with every start reaching it, i.e. one orbit of Aut(C)): among the pairs
+whose smoothing is prime and reduced, those at crossings with the smallest invariant
+of their starts (:func:`~pipeline.diagrams.shadow_canonical.start_invariants`, so most
+children are rejected before any walk), and of these the first (crossing number,
+smoothing type) in that labelling.  *Every shadow is produced exactly once*, by induction on n (n = 2: the Hopf
 shadow alone):
 
 * at least once: C has a prime reduced smoothing (the lemma above, n >= 3), so its
@@ -92,7 +94,7 @@ from ...errors import NotationError
 from ..diagram import Diagram
 from ..flype import _order, diagram_of_code, flype_codes
 from ..shadow import alternating_codes, alternating_over, extensions, n_components, prime_reduced, to_diagram, twins
-from ..shadow_canonical import NEW_SMOOTHING, flype_local_minimum, shadow_code, smoothing
+from ..shadow_canonical import NEW_SMOOTHING, flype_local_minimum, shadow_code, smoothing, start_invariants
 
 __all__ = ["MIN_CROSSINGS", "MAX_CROSSINGS", "codes", "diagrams", "diagram", "from_notation",
            "random_diagram"]
@@ -113,22 +115,42 @@ def _smoothing_type(ref: int, eps: int, tp: int) -> int:
     return (ref + tp) & 1 if eps == 1 else (ref - tp - 1) & 1
 
 
-def _canonical_child(tw: list[int], x: int) -> tuple[tuple[int, ...], bool]:
-    """(shadow code, whether smoothing crossing ``x`` back is the canonical deletion).
+def _canonical_child(tw: list[int], x: int) -> tuple[tuple[int, ...] | None, bool]:
+    """(shadow code or None, whether smoothing crossing ``x`` back is the canonical deletion).
 
-    The canonical deletion is the first (crossing, smoothing) in the canonical
-    labelling (crossing number, then labelled type 0, 1) whose smoothing is prime and
-    reduced; the added crossing qualifies iff some best start labels it so.
+    The canonical deletion: among the (crossing, smoothing) pairs whose smoothing is
+    prime and reduced, those at crossings with the smallest crossing invariant (the
+    least :func:`~pipeline.diagrams.shadow_canonical.start_invariants` of its eight
+    starts); of these the first in the canonical labelling (crossing number, then
+    labelled type 0, 1).  The added crossing qualifies iff some best start labels it so.
+    A child failing the cheap invariant test is rejected before any walk (code None).
     """
-    code, labels = shadow_code(tw)
+    inv = start_invariants(tw)
+    n = len(tw) // 4
+    ci = [min(inv[h, e] for h in range(4 * c, 4 * c + 4) for e in (1, -1)) for c in range(n)]
+    types = {}
+
+    def removable(c: int) -> list[int]:
+        if c not in types:
+            types[c] = [t for t in (0, 1) if (s := smoothing(tw, c, t)) is not None and prime_reduced(s)]
+        return types[c]
+
+    for c in sorted(range(n), key=ci.__getitem__):
+        if ci[c] >= ci[x]:
+            break
+        if removable(c):
+            return None, False                       # a smaller crossing invariant is removable
+    low = ci[x]
+    code, labels = shadow_code(tw, inv)
     order, ref, eps = labels[0]
-    for q in range(len(order)):
+    for q in range(n):
+        if ci[order[q]] != low:
+            continue
         for tp in (0, 1):
-            s = smoothing(tw, order[q], _smoothing_type(ref[q], eps, tp))
-            if s is not None and prime_reduced(s):
+            if _smoothing_type(ref[q], eps, tp) in removable(order[q]):
                 return code, any(o[q] == x and _smoothing_type(r[q], e, tp) == NEW_SMOOTHING
                                  for o, r, e in labels)
-    return code, False  # no prime reduced smoothing: impossible for >= 3 crossings (Tutte)
+    return code, False  # unreachable: x itself is removable
 
 
 def _shadows(n: int, keep=None) -> Iterator[tuple[list[int], tuple[int, ...]]]:
