@@ -72,7 +72,7 @@ M. Thistlethwaite, J. Weeks, "The first 1,701,936 knots", Math. Intelligencer 20
 Memory: the generation holds only the current path of the depth-first search (at
 most n parents with their pending extensions and the codes of their accepted
 children) — flat in n.  To sort the types, the codes of level n are held (a list of
-``pd:`` texts, about 0.5 MB for 4878 knots at n = 13) and cached per (n, links) for
+``pd:`` texts, 820 kB for the 4878 knots of n = 13) and cached per (n, links) for
 :func:`diagram`; measured in reports/bench_alternating_enum.md.
 
 References
