@@ -180,3 +180,14 @@ def test_canonical_augmentation_yields_every_shadow_exactly_once():
         got = [code for _, code in alt._shadows(n)]
         assert len(got) == len(set(got))                         # no shadow twice
         assert set(got) == slow[n], n                             # and none missing
+
+
+def test_knots_of_the_link_run_are_the_knots_run():
+    # links=True walks all last-level shadows once; its knots must be the knots-only run's
+    for n in range(2, 8):
+        alt._CACHE.clear()
+        both = alt.codes(n, links=True)
+        alt._CACHE.clear()
+        knots = alt.codes(n)
+        assert both[:len(knots)] == knots and len(set(both)) == len(both)
+        assert all(diagram_of_code(c).n_components > 1 for c in both[len(knots):])
