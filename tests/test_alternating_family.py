@@ -108,3 +108,86 @@ def test_bad_input_is_one_line_errors(call, match):
     with pytest.raises(KnotLedgerError, match=match) as info:
         call()
     assert "\n" not in str(info.value)
+
+
+# ---------------------------------------------------------------------- canonical augmentation
+def _relabelled(tw, rng):
+    """The same shadow with crossings renumbered and their slots rotated at random."""
+    n = len(tw) // 4
+    perm = list(range(n))
+    rng.shuffle(perm)
+    rot = [rng.randrange(4) for _ in range(n)]
+
+    def f(h):
+        return 4 * perm[h >> 2] + (((h & 3) + rot[h >> 2]) & 3)
+
+    out = [0] * len(tw)
+    for h, g in enumerate(tw):
+        out[f(h)] = f(g)
+    return out
+
+
+def _reflected(tw):
+    """The mirror-image map (every rotation reversed): the same shadow up to homeomorphism."""
+    return [4 * (g >> 2) + ((-(g & 3)) & 3) for g in (tw[4 * (h >> 2) + ((-(h & 3)) & 3)] for h in range(len(tw)))]
+
+
+def test_shadow_code_names_the_shadow_up_to_homeomorphism():
+    import random
+    from pipeline.diagrams.shadow import twins
+    from pipeline.diagrams.shadow_canonical import shadow_code
+    rng = random.Random(3)
+    for n in range(3, 26, 2):
+        tw = twins(alt.random_diagram(n, seed=n))
+        code, starts = shadow_code(tw)
+        for _ in range(3):
+            other = _relabelled(tw, rng)
+            c2, s2 = shadow_code(other)
+            assert c2 == code and len(s2) == len(starts)         # |Aut| does not depend on labels
+        assert shadow_code(_reflected(tw))[0] == code
+
+
+def test_smoothing_the_added_crossing_gives_the_parent_back():
+    from pipeline.diagrams.shadow import extensions, twins
+    from pipeline.diagrams.shadow_canonical import NEW_SMOOTHING, smoothing
+    for n in (3, 6, 9):
+        tw = twins(alt.random_diagram(n, seed=1))
+        for new in extensions(tw):
+            assert smoothing(new, n, NEW_SMOOTHING) == tw
+
+
+def _levels_slow(top):
+    """Every prime reduced shadow up to ``top`` crossings, level by level: all extensions
+    of the level below, deduplicated by their shadow code (the obviously complete route)."""
+    from pipeline.diagrams.shadow import extensions, prime_reduced
+    from pipeline.diagrams.shadow_canonical import shadow_code
+    level = {shadow_code(alt._hopf())[0]: alt._hopf()}
+    out = {2: set(level)}
+    for n in range(3, top + 1):
+        nxt = {}
+        for tw in level.values():
+            for new in extensions(tw):
+                if prime_reduced(new):
+                    nxt.setdefault(shadow_code(new)[0], new)
+        out[n] = set(nxt)
+        level = nxt
+    return out
+
+
+def test_canonical_augmentation_yields_every_shadow_exactly_once():
+    slow = _levels_slow(8)
+    for n in range(2, 9):
+        got = [code for _, code in alt._shadows(n)]
+        assert len(got) == len(set(got))                         # no shadow twice
+        assert set(got) == slow[n], n                             # and none missing
+
+
+def test_knots_of_the_link_run_are_the_knots_run():
+    # links=True walks all last-level shadows once; its knots must be the knots-only run's
+    for n in range(2, 8):
+        alt._CACHE.clear()
+        both = alt.codes(n, links=True)
+        alt._CACHE.clear()
+        knots = alt.codes(n)
+        assert both[:len(knots)] == knots and len(set(both)) == len(both)
+        assert all(diagram_of_code(c).n_components > 1 for c in both[len(knots):])

@@ -259,9 +259,11 @@ def test_knots_table_flype_class_check():
     m = _row("pretzel:-3,-3,-2", row_id=0)
     alt = [_row(f"alt:8:{i}", row_id=i) for i in range(1, 19)]
     twin = [r for r in alt if r["flype_code"] == m["flype_code"]]
-    assert m["knot_key"].startswith("mont:") and len(twin) == 1 and twin[0]["knot_key"].startswith("alt:")
-    table = {t["knot_key"]: t for t in build_knots_table([m, twin[0]])}
-    assert "known gap" in table[m["knot_key"]]["distinctness_note"]
+    # the family row now has the flype key of its class (rule (b′)): one knots row
+    assert len(twin) == 1 and m["knot_key"] == twin[0]["knot_key"] and m["knot_key"].startswith("alt:")
+    assert m["bs_key"].startswith("mont:") and m["key_rule"] == "alternating"
+    (one,) = build_knots_table([m, twin[0]])
+    assert one["n_diagrams"] == 2 and one["flype_code"] == m["flype_code"]
     forged = dict(twin[0], knot_key="2b:99/7", mirror_key="2b:99/7", row_id=5)
     with pytest.raises(KeyConflictError, match="share a flype class"):
         build_knots_table([twin[0], {k: v for k, v in forged.items() if k != "diagram"}])
@@ -287,3 +289,118 @@ def test_links_option_of_the_family():
     assert _row("altlink:6:1")["proof"] == "normal form"
     only = parse_spec('[[family]]\nkind = "alternating"\ncrossings = [2, 6]\nlinks = true\nknots_only = true\n')
     assert all(it.notation.startswith("alt:") for it in iter_items(only))
+
+
+# ---------------------------------------------------------------------- alternating Montesinos rows
+def _dt(d) -> str:
+    """The DT code of a knot diagram, read off its PD code (slow and plain).
+
+    Passages are numbered by the incoming edge along the one component (edges are
+    numbered consecutively along it, README contract); each crossing is passed once at
+    an odd and once at an even number; the even one is negated when it is the over
+    passage (C. H. Dowker, M. B. Thistlethwaite, Topology Appl. 16, 1983; the sign
+    convention only decides between the knot and its mirror).
+    """
+    n2 = 2 * len(d.pd)
+    pairs = {}
+    for a, b, c, e in d.pd:
+        over_in = b if e == b % n2 + 1 else e
+        pairs[a], pairs[over_in] = (over_in, False), (a, True)     # (partner, partner is over)
+    out = []
+    for odd in range(1, n2, 2):
+        even, even_over = pairs[odd]
+        assert even % 2 == 0
+        out.append(-even if even_over else even)
+    return "dt:" + " ".join(map(str, out))
+
+
+def _alternating_montesinos(rng):
+    """A random Montesinos notation with tangles of one sign (reduced alternating, at
+    most 11 crossings) and the same link written with an integer moved between two
+    tangles (tangles of both signs: the diagram is not alternating)."""
+    from fractions import Fraction
+    from pipeline.diagrams.families.two_bridge import continued_fraction
+    while True:
+        k = rng.choice([3, 3, 4])
+        fr = []
+        for _ in range(k):
+            a = rng.randint(2, 5)
+            fr.append(Fraction(rng.choice([b for b in range(1, a) if gcd(a, b) == 1]), a))
+        sign = rng.choice([1, -1])
+        fr = [sign * f for f in fr]
+        if sum(sum(map(abs, continued_fraction(f.numerator, f.denominator))) for f in fr) <= 11:
+            break
+    m = rng.choice([1, -1])
+    mixed = [fr[0] + m, fr[1] - m] + fr[2:]                      # an isotopy (Montesinos)
+    return tuple("montesinos:" + ",".join(f"{f.numerator}/{f.denominator}" for f in x) for x in (fr, mixed))
+
+
+def _pretzel(rng):
+    while True:
+        sign = rng.choice([1, -1])
+        ps = [sign * rng.randint(2, 4) for _ in range(rng.choice([3, 3, 4]))]
+        if sum(map(abs, ps)) <= 11:
+            return "pretzel:" + ",".join(map(str, ps))
+
+
+def test_alternating_montesinos_rows_get_the_key_of_the_typed_in_diagram():
+    # Flyping theorem (Menasco–Thistlethwaite 1993) for the typed-in PD / DT codes,
+    # Bonahon–Siebenmann for the family: the two classifications must agree.
+    import random
+    rng = random.Random(20)
+    cases = [(_pretzel(rng), None) for _ in range(5)] + [_alternating_montesinos(rng) for _ in range(7)]
+    rows = []
+    for i, (t, mixed) in enumerate(cases):
+        fam = _row(t, row_id=4 * i)
+        assert fam["key_rule"] == "alternating" and fam["knot_key"].startswith("alt:"), t
+        assert fam["bs_key"].startswith("mont:") and fam["proof"] == "normal form"
+        d = parse(t)
+        pd = _row(d.to_notation(), d, row_id=4 * i + 1)
+        assert pd["knot_key"] == fam["knot_key"] and pd["mirror_key"] == fam["mirror_key"], t
+        assert pd["amphichiral"] == fam["amphichiral"] and pd["crossing_number"] == fam["crossing_number"]
+        rows += [fam, pd]
+        if d.n_components == 1:
+            dt = _row(_dt(d), row_id=4 * i + 2)
+            assert _pair(dt) == _pair(fam), t                   # DT fixes the knot up to mirror
+            rows.append(dt)
+        if mixed is not None:
+            mx = _row(mixed, row_id=4 * i + 3)
+            assert (mx["knot_key"], mx["bs_key"]) == (fam["knot_key"], fam["bs_key"]), mixed
+            rows.append(mx)
+    table = {t["knot_key"]: t for t in build_knots_table(rows)}
+    assert sorted(table) == sorted({r["knot_key"] for r in rows})
+    assert all(table[r["knot_key"]]["n_diagrams"] >= 2 for r in rows if r.get("bs_key"))   # family + PD
+    assert set(table) <= {k for r in rows if r.get("bs_key") for k in (r["knot_key"], r["mirror_key"])}
+    # the cross-check: same Bonahon–Siebenmann key iff same flype key
+    fams = [r for r in rows if r.get("bs_key")]
+    for a in fams:
+        for b in fams:
+            assert (a["bs_key"] == b["bs_key"]) == (a["knot_key"] == b["knot_key"]), (a["notation"], b["notation"])
+            assert (a["bs_key"] == b["bs_mirror_key"]) == (a["knot_key"] == b["mirror_key"])
+
+
+def test_mutant_pretzels_keep_distinct_flype_keys():
+    # P(2,3,3,5) and P(2,3,5,3) are mutants, distinct by Bonahon–Siebenmann; the flyping
+    # theorem must separate them too (same determinant, Jones and Alexander polynomial).
+    a, b = _row("pretzel:2,3,3,5"), _row("pretzel:2,3,5,3", row_id=1)
+    assert a["jones"] == b["jones"] and a["determinant"] == b["determinant"]
+    assert a["knot_key"] != b["knot_key"] and a["bs_key"] != b["bs_key"]
+    assert a["knot_key"].startswith("alt:") and b["knot_key"].startswith("alt:")
+    assert _row("pretzel:3,5,3,2")["knot_key"] == b["knot_key"]          # a rotation: the same link
+
+
+def test_montesinos_cross_check_and_budget_fallback():
+    a = _row("montesinos:2/5,1/3,1/2")
+    low = _row("montesinos:2/5,1/3,1/2", row_id=1, flype_budget=1)
+    # over the flype budget the family key is kept and the reason names the budget
+    assert low["knot_key"] == a["bs_key"] and "budget" in low["key_reason"]
+    table = {t["knot_key"]: t for t in build_knots_table([a, low])}
+    assert "the same type as" in table[a["knot_key"]]["distinctness_note"]
+    assert "the same type as" in table[low["knot_key"]]["distinctness_note"]
+    # a forged row: one flype key with two Bonahon–Siebenmann keys
+    forged = {**{k: v for k, v in a.items() if k != "diagram"}, "row_id": 2, "bs_key": "mont:0:1/3,1/3,1/3"}
+    with pytest.raises(KeyConflictError, match="Bonahon-Siebenmann"):
+        build_knots_table([a, forged])
+    # a non-alternating Montesinos link keeps its Bonahon–Siebenmann key
+    n = _row("montesinos:2/5,1/3,-1/2")
+    assert n["knot_key"].startswith("mont:") and n["key_rule"] == "family" and "bs_key" not in n

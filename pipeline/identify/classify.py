@@ -20,6 +20,20 @@ Rules (a) and (c) live in :mod:`pipeline.identify.flype_keys`.
 (b) **family normal forms**, from the notation or the family parameters: torus,
     Schubert two-bridge (``rational``, ``conway``), Bonahon–Siebenmann Montesinos and
     pretzel, a braid word of the torus form — see :mod:`pipeline.identify.normal_forms`.
+(b′) **alternating Montesinos family rows** (``montesinos:`` / ``pretzel:`` with a
+    ``mont:`` normal form whose tangles can be given one sign,
+    :func:`~pipeline.identify.normal_forms.alternating_montesinos`): the key is the one
+    rule (c) gives the reduced alternating Montesinos diagram of those tangles — the
+    flype key (it is never two-bridge; the same two-bridge test as (c) runs) — so the
+    family row and the same knot typed in as a braid, PD or DT code get one key.  The
+    Bonahon–Siebenmann key is kept as ``bs_key`` (and ``bs_mirror_key``) and
+    cross-checked: the amphichirality verdicts must agree here, and in the knots table
+    same ``bs_key`` iff same knot key
+    (:func:`pipeline.identify.knots_table.check_montesinos_keys`).  Over the flype budget
+    the row keeps its ``mont:`` key (the reason says so; never a guess).  Montesinos
+    links with tangles of both signs in every reduced Montesinos diagram are not
+    alternating (Lickorish–Thistlethwaite 1988), so they keep the ``mont:`` key and no
+    typed-in alternating diagram can be of their type.
 (c) **reduced prime alternating diagrams** (after simplification), rows not keyed by
     (b): two-bridge links are recognised first by comparing flype codes with every
     rational candidate of equal determinant, crossing count and Jones polynomial
@@ -28,15 +42,10 @@ Rules (a) and (c) live in :mod:`pipeline.identify.flype_keys`.
     theorem, Menasco–Thistlethwaite, Annals of Math. 138, 1993), its mirror key from
     the mirror's flype code, a chirality verdict from the same theorem and the
     certified crossing number of the reduced alternating diagram.
-(d) **alternating Montesinos family rows** (three or more tangles) keep their
-    Bonahon–Siebenmann key by (b).  *Known gap*: the same knot typed in as a braid,
-    PD or DT code gets the flype key by (c) (no Montesinos recognition inside
-    arbitrary diagrams); the knots table notes such pairs as the same type (equal
-    flype codes) instead of merging them.
-(e) otherwise a **fingerprint** of the invariants (``proof = 'fingerprint only'``);
+(d) otherwise a **fingerprint** of the invariants (``proof = 'fingerprint only'``);
     ``key_reason`` says which budget or missing theorem sent the row here.
 
-Every key from (a)–(d) has ``proof = 'normal form'``.  For rows carrying a diagram
+Every key from (a)–(c) has ``proof = 'normal form'``.  For rows carrying a diagram
 the result also has ``simplified_crossings``, ``simplified_notation`` (None when not
 smaller), ``prime`` / ``prime_reason`` and ``flype_code`` (the diagram's flype code
 when it simplifies to a reduced prime alternating diagram, for the knots-table check
@@ -61,12 +70,17 @@ References
 ----------
 1. L. Kauffman, K. Murasugi, M. Thistlethwaite, Topology 26 (1987): a connected
    reduced alternating diagram has the minimal crossing number.
+2. F. Bonahon, L. Siebenmann, "New geometric splittings of classical knots and the
+   classification and symmetries of arborescent knots" (monograph, 1979–2010).
+3. W. B. R. Lickorish, M. B. Thistlethwaite, "Some links with non-trivial polynomials
+   and their crossing-numbers", Comment. Math. Helv. 63 (1988) *(memory)*.
 """
 
 from __future__ import annotations
 
 import json
 import re
+from fractions import Fraction
 from typing import Optional, Sequence
 
 from ..diagrams.canonical import canonical_text, diagram_id
@@ -76,7 +90,8 @@ from ..diagrams.notation import parse_notation, split_notation
 from ..errors import KnotLedgerError
 from ..invariants.row import InvariantValues
 from .fingerprint import fingerprint, jones_orientation_set, mirror_fingerprint
-from .normal_forms import (CN_ALT, NormalForm, montesinos_nf, pretzel_nf, torus_nf, two_bridge_nf)
+from .normal_forms import (CN_ALT, NormalForm, alternating_montesinos, montesinos_nf, pretzel_nf,
+                           torus_nf, two_bridge_nf)
 from . import flype_keys
 
 __all__ = ["canonical_text", "diagram_id", "knot_key", "fingerprint", "build_knots_table",
@@ -88,6 +103,20 @@ __all__ = ["canonical_text", "diagram_id", "knot_key", "fingerprint", "build_kno
 _NF_KINDS = ("torus", "rational", "conway", "pretzel", "montesinos", "braid")
 
 
+def _parsed(row: dict) -> Optional[tuple[str, list]]:
+    """(kind, parsed arguments) of a row's notation or family parameters, for the kinds
+    with a normal form; None otherwise (also for a notation that does not parse)."""
+    notation = row.get("notation")
+    try:
+        kind, args = split_notation(notation) if notation else _from_params(row)
+        if kind not in _NF_KINDS:
+            return None
+        n = parse_notation(f"{kind}:{args}") if not notation else parse_notation(notation)
+        return kind, list(n.args)
+    except (ValueError, ZeroDivisionError, KnotLedgerError):
+        return None
+
+
 def normal_form(row: dict) -> Optional[NormalForm]:
     """The normal form of a row from its notation (or family parameters); None if none applies.
 
@@ -96,16 +125,11 @@ def normal_form(row: dict) -> Optional[NormalForm]:
     has no normal form.
     """
     from ..diagrams.families.two_bridge import fraction_of
-    notation = row.get("notation")
+    got = _parsed(row)
+    if got is None:
+        return None
+    kind, vals = got
     try:
-        if notation:
-            kind, args = split_notation(notation)
-        else:
-            kind, args = _from_params(row)
-        if kind not in _NF_KINDS:
-            return None
-        n = parse_notation(f"{kind}:{args}") if not notation else parse_notation(notation)
-        vals = list(n.args)
         if kind == "torus":
             return torus_nf(*vals)
         if kind == "rational":
@@ -120,6 +144,44 @@ def normal_form(row: dict) -> Optional[NormalForm]:
         return _torus_braid(vals)
     except (ValueError, ZeroDivisionError, KnotLedgerError):
         return None
+
+
+def _tangles(row: dict) -> Optional[list]:
+    """The Montesinos tangle fractions of a ``montesinos`` / ``pretzel`` row (None = ∞)."""
+    got = _parsed(row)
+    if got is None or got[0] not in ("pretzel", "montesinos"):
+        return None
+    kind, vals = got
+    return [None if p == 0 else Fraction(1, p) for p in vals] if kind == "pretzel" else vals
+
+
+def _alternating_montesinos_key(nf: NormalForm, row: dict, st, budget: int, jones):
+    """Rule (b′): an alternating Montesinos family row gets the flype key (module notes).
+
+    Returns (normal form, reason, extra fields) or None when the row is not an
+    alternating Montesinos link; over the flype budget the ``mont:`` key is kept and the
+    reason says so.
+    """
+    from ..diagrams.notation import parse
+    from ..errors import BudgetExceeded
+    from .knots_table import KeyConflictError
+    tangles = _tangles(row)
+    fr = None if tangles is None else alternating_montesinos(tangles)
+    if fr is None:
+        return None
+    d = parse("montesinos:" + ",".join(f"{f.numerator}/{f.denominator}" for f in fr))
+    codes = (st.flype_code, st.mirror_code) if st is not None and st.flype_code else None
+    try:
+        alt, code, mcode, reason = flype_keys.alternating_nf(d, budget=budget, jones=jones, codes=codes)
+    except BudgetExceeded as err:
+        return nf, (f"family normal form (Bonahon-Siebenmann); the flype key of this alternating "
+                    f"Montesinos link is not computed: {err}"), {}
+    if alt.amphichiral != nf.amphichiral:
+        raise KeyConflictError(f"{row.get('notation')}: the flype class and Bonahon-Siebenmann disagree "
+                               "on amphichirality (a normal form or the flype code is wrong)")
+    reason += (f"; an alternating Montesinos link: the reduced alternating diagram {d.to_notation()} "
+               f"(Bonahon-Siebenmann key {nf.key} kept as bs_key, a cross-check)")
+    return alt, reason, {"bs_key": nf.key, "bs_mirror_key": nf.mirror_key, "flype_code": code}
 
 
 def _from_params(row: dict) -> tuple[str, str]:
@@ -232,6 +294,14 @@ def knot_key(row: dict, *, simplify_budget: Optional[int] = None,
         nf, rule, reason = st.nf, st.rule, st.key_reason          # rule (a), or (c) without (b)
     elif nf is not None:
         rule, reason = "family", "family normal form (pipeline.identify.normal_forms)"   # rule (b)
+        if nf.key.startswith("mont:"):                            # rule (b′)
+            jones = InvariantValues.from_record(row).jones if nf.components == 1 else None
+            got = _alternating_montesinos_key(
+                nf, row, st, flype_keys.FLYPE_BUDGET if flype_budget is None else flype_budget, jones)
+            if got is not None:
+                nf, reason, more = got
+                rule = "alternating" if more else rule
+                extra.update(more)
     alt_cn = _alternating_cn(row)
     if alt_cn is None and st is not None and st.simplified is not None:
         alt_cn = _diagram_facts.alternating_crossing_number(st.simplified)

@@ -1,6 +1,6 @@
 """The knots table: one row per knot key, from diagram rows carrying keys.
 
-:func:`build_knots_table` runs four steps, each a small function here:
+:func:`build_knots_table` runs six steps, each a small function here:
 
 1. **grouping** (:func:`group_rows`): rows read back from the store are completed
    (:func:`_stored_row`), keyed by :func:`pipeline.identify.classify.knot_key` when they
@@ -19,9 +19,10 @@
    ``diagram_id``) to one of a normal-form key is noted as the same type;
 5. **flype classes** (:func:`check_flype_classes`): the rows of one key have at most one
    flype code, and no two normal-form keys share a flype code (equal codes are one
-   link by the flyping theorem, Menasco–Thistlethwaite 1993) — except the documented
-   gap of :mod:`pipeline.identify.classify` rule (d), an ``alt:`` key and a
-   Bonahon–Siebenmann ``mont:`` key, which is noted as the same type.
+   link by the flyping theorem, Menasco–Thistlethwaite 1993);
+6. **Montesinos cross-check** (:func:`check_montesinos_keys`): alternating Montesinos
+   family rows carry their Bonahon–Siebenmann key as ``bs_key`` beside the flype key
+   (:mod:`pipeline.identify.classify` rule (b′)): same ``bs_key`` iff same knot key.
 
 References
 ----------
@@ -45,7 +46,7 @@ from .fingerprint import _factors, _poly, base_fingerprint, separating_invariant
 from .normal_forms import CN_ALT
 
 __all__ = ["build_knots_table", "group_rows", "check_invariants", "amphichirality",
-           "crossing_number", "add_notes", "check_flype_classes", "KeyConflictError"]
+           "crossing_number", "add_notes", "check_flype_classes", "check_montesinos_keys", "KeyConflictError"]
 
 _UNKNOWN = "unknown: invariants do not decide"
 
@@ -122,6 +123,7 @@ def build_knots_table(rows: list[dict]) -> list[dict]:
         })
     add_notes(out)
     check_flype_classes(out)
+    check_montesinos_keys(out, {key: groups[key][1] for key in groups})
     return out
 
 
@@ -136,28 +138,49 @@ def _flype_code(key: str, members: list[dict], metas: list[dict]) -> Optional[st
 
 
 def check_flype_classes(out: list[dict]) -> None:
-    """Raise :class:`KeyConflictError` when two normal-form keys share a flype code.
-
-    The one allowed case (rule (d), a known gap): an ``alt:`` flype key and a
-    ``mont:`` key of the same alternating Montesinos link; both get a note.
-    """
+    """Raise :class:`KeyConflictError` when two normal-form keys share a flype code
+    (equal flype codes are one link by the flyping theorem, so one of the keys is wrong)."""
     by_code: dict[str, list[dict]] = {}
     for row in out:
         if row.get("flype_code") and row["proof"] == "normal form":
             by_code.setdefault(row["flype_code"], []).append(row)
     for rows in by_code.values():
-        if len(rows) < 2:
-            continue
-        kinds = sorted(r["knot_key"].split(":", 1)[0] for r in rows)
-        names = ", ".join(sorted(r["knot_key"] for r in rows))
-        if kinds != ["alt", "mont"]:
+        if len(rows) > 1:
+            names = ", ".join(sorted(r["knot_key"] for r in rows))
             raise KeyConflictError(f"knot keys {names} share a flype class (the same link by the "
                                    "flyping theorem): a normal form or the flype code is wrong")
-        for r in rows:
-            other = [x["knot_key"] for x in rows if x is not r][0]
-            note = (f"the same type as {other}: equal flype codes (flyping theorem); an alternating "
-                    "Montesinos link keyed by its family and by a typed-in diagram (known gap)")
-            r["distinctness_note"] = note if not r.get("distinctness_note") else r["distinctness_note"] + "; " + note
+
+
+def check_montesinos_keys(out: list[dict], metas_of: dict[str, list[dict]]) -> None:
+    """The Bonahon–Siebenmann cross-check of alternating Montesinos rows.
+
+    A family row keyed by its flype class (classify rule (b′)) keeps its ``mont:`` key as
+    ``bs_key``; two classification theorems name the same types, so rows with the same
+    ``bs_key`` must have the same knot key and one knot key may not carry two ``bs_key``
+    values (:class:`KeyConflictError` otherwise).  A row that kept its ``mont:`` key
+    (over the flype budget) while another row of the same ``bs_key`` has the flype key
+    is one type under two keys, not an error: both rows get a note.
+    """
+    keys_of_bs: dict[str, set] = {}
+    for key, metas in metas_of.items():
+        bs = {m["bs_key"] for m in metas if m.get("bs_key")}
+        if len(bs) > 1:
+            raise KeyConflictError(f"knot key {key!r}: rows have the Bonahon-Siebenmann keys "
+                                   f"{', '.join(sorted(bs))} (two types under one key)")
+        for b in bs:
+            keys_of_bs.setdefault(b, set()).add(key)
+    rows = {r["knot_key"]: r for r in out}
+    for b, keys in keys_of_bs.items():
+        if len(keys) > 1:
+            raise KeyConflictError(f"Bonahon-Siebenmann key {b} has the knot keys {', '.join(sorted(keys))} "
+                                   "(the flype class and the Montesinos classification disagree)")
+        (key,) = keys
+        if b in rows:
+            for k, other in ((key, b), (b, key)):
+                note = (f"the same type as {other}: Bonahon-Siebenmann key {b} (an alternating Montesinos "
+                        "row kept its family key, over the flype budget)")
+                r = rows[k]
+                r["distinctness_note"] = note if not r.get("distinctness_note") else r["distinctness_note"] + "; " + note
 
 
 # ---------------------------------------------------------------------- grouping

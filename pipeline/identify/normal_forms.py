@@ -74,7 +74,7 @@ from typing import Optional, Sequence
 from ..numbers import UnionFind
 
 __all__ = ["NormalForm", "unknot", "unlink", "two_bridge_nf", "torus_nf", "montesinos_nf",
-           "pretzel_nf", "connected_sum_nf", "split_nf", "euclid_terms"]
+           "pretzel_nf", "connected_sum_nf", "split_nf", "euclid_terms", "alternating_montesinos"]
 
 CN_ALT = "reduced alternating diagram (Kauffman, Murasugi, Thistlethwaite 1987)"
 CN_TORUS = "torus knot min(p(q-1), q(p-1)) (Murasugi, Trans. AMS 326, 1991)"
@@ -331,6 +331,41 @@ def _montesinos_components(fr: list[Fraction]) -> int:
 def pretzel_nf(entries: Sequence[int]) -> NormalForm:
     """P(p1, ..., pk) = M(1/p1, ..., 1/pk); a zero entry is the ∞ tangle."""
     return montesinos_nf([None if p == 0 else Fraction(1, p) for p in entries])
+
+
+def alternating_montesinos(fractions: Sequence[Optional[Fraction]]) -> Optional[list[Fraction]]:
+    """The tangles of a reduced alternating Montesinos diagram of M(f1, ..., fr), or None.
+
+    With the residues 0 < r_i < 1 of the k >= 3 non-integral tangles (in the given
+    cyclic order) and the integer e = Σ f_i − Σ r_i, M(f) = M(r_1 + e, r_2, ..., r_k):
+    all tangles positive when e >= 0; when e <= −k, M(r_1 − 1 + e + k, r_2 − 1, ...) has
+    all tangles negative.  Moving integers between tangles is an isotopy (Montesinos;
+    Burde–Zieschang ch. 12).  Such a diagram (rational tangles of one sign, each an
+    alternating continued fraction) is reduced alternating.  For −k < e < 0 (and for an
+    ∞ tangle or fewer than three non-integral tangles) None: the reduced Montesinos
+    diagram then has tangles of both signs, and a link with a reduced non-alternating
+    Montesinos diagram is not alternating (W. B. R. Lickorish, M. B. Thistlethwaite,
+    "Some links with non-trivial polynomials and their crossing-numbers", Comment.
+    Math. Helv. 63 (1988) *(memory)*).
+
+    Examples
+    --------
+    >>> alternating_montesinos([Fraction(4, 3), Fraction(-1, 3), Fraction(1, 2)])
+    [Fraction(1, 3), Fraction(2, 3), Fraction(1, 2)]
+    """
+    if not fractions or any(f is None for f in fractions):
+        return None
+    fr = [Fraction(f) for f in fractions]
+    res = [f - (f.numerator // f.denominator) for f in fr if f.denominator != 1]
+    k = len(res)
+    if k < 3:
+        return None
+    e = sum(fr, Fraction(0)) - sum(res, Fraction(0))
+    if e >= 0:
+        return [res[0] + e] + res[1:]
+    if e <= -k:
+        return [res[0] - 1 + e + k] + [r - 1 for r in res[1:]]
+    return None
 
 
 _COINCIDENCES: dict[str, NormalForm] = {}

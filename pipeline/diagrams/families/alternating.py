@@ -9,21 +9,49 @@ image.  The alternating diagram is reduced and visibly prime iff G is 2-connecte
 circle meeting the diagram twice).  For a 2-connected G with at least three edges
 and every edge e, G − e or G / e is 2-connected (W. T. Tutte, "Graph theory",
 Addison-Wesley 1984, ch. III: deletion/contraction of 2-connected graphs), and both
-correspond to *smoothing* the crossing of e in the medial.  So every prime reduced
-shadow with n crossings arises from one with n − 1 crossings by the inverse move:
-inside a face, pull two of its boundary edges together into a new crossing.  We grow
-all prime reduced shadows from the Hopf shadow (G = two parallel edges), level by
-level, and deduplicate by the alternating map code of the shadow
-(:func:`pipeline.diagrams.shadow.alternating_codes`, the smaller of the diagram's and
-its mirror's, so a shadow is taken up to every homeomorphism of the sphere).
+correspond to *smoothing* the crossing of e in the medial.  So every prime reduced shadow with
+n >= 3 crossings arises from one with n − 1 crossings by the inverse move
+(:func:`pipeline.diagrams.shadow.extensions`: inside a face, pull two of its boundary
+edges together into a new crossing).
 
-At the last level the one-component shadows (or all, for links) are grouped into
-flype classes up to mirror image: two shadows are joined when a flype
-(:mod:`pipeline.diagrams.flype`) or the mirror takes one alternating diagram to the
-other.  By the flyping theorem (W. Menasco, M. Thistlethwaite, Annals of Math. 138,
-1993) the groups are exactly the prime alternating link types up to mirror image,
-and every flype of an enumerated diagram is again an enumerated diagram, so the
-union of one-step flypes finds whole classes.
+Canonical augmentation (B. D. McKay, "Isomorph-free exhaustive generation",
+J. Algorithms 26 (1998) 306–324).  The shadows are grown depth first from the Hopf
+shadow (G = two parallel edges) and nothing of a level is stored.  A child C (n
+crossings, prime reduced) of a parent P is accepted iff (i) the pair (new crossing x,
+the smoothing of x that gives P back) is, under an automorphism of C, the *canonical
+deletion* of C, and (ii) no automorphic extension of the same P was accepted before
+(a set of the accepted children's codes of this one parent).  The canonical deletion
+is read off the canonical labelling of C
+(:func:`pipeline.diagrams.shadow_canonical.shadow_code`: the smallest map code over
+every start, with every start reaching it, i.e. one orbit of Aut(C)): among the pairs
+whose smoothing is prime and reduced, those at crossings with the smallest invariant
+of their starts (:func:`~pipeline.diagrams.shadow_canonical.start_invariants`, so most
+children are rejected before any walk), and of these the first (crossing number,
+smoothing type) in that labelling.  *Every shadow is produced exactly once*, by induction on n (n = 2: the Hopf
+shadow alone):
+
+* at least once: C has a prime reduced smoothing (the lemma above, n >= 3), so its
+  canonical deletion (c*, t*) exists and smooths C to a prime reduced P*, which by
+  induction is isomorphic to exactly one generated P; the isomorphism carries the
+  inverse move to an extension of P that gives a copy of C whose added crossing is
+  the image of c*, so (i) holds for it; (ii) can only drop it if an isomorphic child of
+  the same P was accepted already;
+* at most once: if C is accepted from P1 and from P2, both added pairs are in the
+  orbit of the canonical deletion, so P1 ≅ P2 (smoothing an orbit of pairs gives one
+  shadow up to isomorphism), hence P1 = P2 by induction, and (ii) keeps one child.
+
+At the last level the one-component shadows (or all, for links) are taken.  A type's
+*canonical member* is the shadow of its code's diagram (below); a shadow is emitted
+only when it is the canonical member of its own flype class (its
+:func:`pipeline.diagrams.flype.flype_codes` give the type's code, whose diagram's
+shadow code equals its own), so classes need no table: each type is emitted from
+exactly one shadow.  By the flyping theorem (W. Menasco, M. Thistlethwaite, Annals of
+Math. 138, 1993) flype classes up to mirror image are exactly the prime alternating
+link types up to mirror image.  Shortcut: a shadow that one flype takes to fewer twist
+regions, or to as many and a smaller alternating map code, is not searched (under the
+rule of ``flype_code`` the code's diagram is the smallest member of its class in that
+order); every code found is checked to come from a shadow that passes this test, so a
+change of that rule raises instead of losing types.
 
 Order (documented, deterministic)
 ---------------------------------
@@ -37,12 +65,15 @@ links (components > 1) sorted the same way.  The order depends only on the codes
 not on the generation.
 
 Counts checked in the tests: 1, 1, 2, 3, 7, 18, 41, 123 prime alternating knots for
-n = 3…10 (J. Hoste, M. Thistlethwaite, J. Weeks, "The first 1,701,936 knots",
-Math. Intelligencer 20, 1998).
+n = 3…10; the benchmark also reaches 367, 1288, 4878 for n = 11, 12, 13 (J. Hoste,
+M. Thistlethwaite, J. Weeks, "The first 1,701,936 knots", Math. Intelligencer 20,
+1998).
 
-Memory: the levels below n are held in memory (a few MB through 11 crossings); the
-classes of the last level are formed before the first row is yielded, so this is
-not a constant-memory stream (see reports/bench_flype.md).
+Memory: the generation holds only the current path of the depth-first search (at
+most n parents with their pending extensions and the codes of their accepted
+children) — flat in n.  To sort the types, the codes of level n are held (a list of
+``pd:`` texts, 820 kB for the 4878 knots of n = 13) and cached per (n, links) for
+:func:`diagram`; measured in reports/bench_alternating_enum.md.
 
 References
 ----------
@@ -51,21 +82,19 @@ References
 2. J. Hoste, M. Thistlethwaite, J. Weeks, "The first 1,701,936 knots",
    Math. Intelligencer 20 (1998) 33–48.
 3. W. T. Tutte, "Graph theory", Addison-Wesley (1984).
+4. B. D. McKay, "Isomorph-free exhaustive generation", J. Algorithms 26 (1998) 306–324.
 """
 
 from __future__ import annotations
 
 import random
-from functools import lru_cache
 from typing import Iterator
 
 from ...errors import NotationError
-from ..canonical import canonical_text
 from ..diagram import Diagram
-from ..flype import _order, diagram_of_code
-from ..flype_circuits import twist_count
-from ..shadow import (alternating_codes, alternating_over, apply_shadow_flype, extensions,
-                      n_components, prime_reduced, shadow_flypes, to_diagram, twins)
+from ..flype import _order, diagram_of_code, flype_codes
+from ..shadow import alternating_codes, alternating_over, extensions, n_components, prime_reduced, to_diagram, twins
+from ..shadow_canonical import NEW_SMOOTHING, flype_local_minimum, shadow_code, smoothing, start_invariants
 
 __all__ = ["MIN_CROSSINGS", "MAX_CROSSINGS", "codes", "diagrams", "diagram", "from_notation",
            "random_diagram"]
@@ -75,94 +104,136 @@ MAX_CROSSINGS = 16
 
 
 # ---------------------------------------------------------------------- shadows
-def _key(tw: list[int]) -> tuple[int, ...]:
-    """The shadow up to every homeomorphism of the sphere (the smaller mirror code)."""
-    return min(alternating_codes(tw, alternating_over(tw)))
+def _hopf() -> list[int]:
+    """The Hopf shadow (two crossings, Tait graph two parallel edges)."""
+    return twins(Diagram.from_pd([(4, 1, 3, 2), (2, 3, 1, 4)]))
 
 
-@lru_cache(maxsize=None)
-def _level(n: int) -> tuple[tuple[int, ...], ...]:
-    """Every prime reduced shadow with n >= 2 crossings (twin arrays), by key."""
-    if n == 2:
-        return (tuple(twins(Diagram.from_pd([(4, 1, 3, 2), (2, 3, 1, 4)]))),)
-    found: dict[tuple[int, ...], tuple[int, ...]] = {}
-    for tw in _level(n - 1):
-        for new in extensions(list(tw)):
-            if prime_reduced(new):
-                k = _key(new)
-                if k not in found:
-                    found[k] = tuple(new)
-    return tuple(found[k] for k in sorted(found))
+def _smoothing_type(ref: int, eps: int, tp: int) -> int:
+    """The smoothing type (:func:`smoothing`'s t) joining the labelled slot positions
+    (tp, tp + 1) and (tp + 2, tp + 3) of a crossing with entry slot ``ref``."""
+    return (ref + tp) & 1 if eps == 1 else (ref - tp - 1) & 1
 
 
-def _last_level(n: int, one_component: bool) -> Iterator[list[int]]:
-    """The shadows of the last level with (or without) one component, deduplicated."""
-    seen: set[tuple[int, ...]] = set()
-    for tw in _level(n - 1):
-        for new in extensions(list(tw)):
-            if (n_components(new) == 1) == one_component and prime_reduced(new):
-                k = _key(new)
-                if k not in seen:
-                    seen.add(k)
-                    yield new
+def _canonical_child(tw: list[int], x: int) -> tuple[tuple[int, ...] | None, bool]:
+    """(shadow code or None, whether smoothing crossing ``x`` back is the canonical deletion).
 
-
-def _classes(shadows: list[list[int]]) -> list[str]:
-    """Flype classes up to mirror of the alternating diagrams on ``shadows``.
-
-    Returns the code of each class: the canonical text of the alternating diagram (or
-    its mirror) with the fewest twist regions and then the smallest alternating map
-    code in the class (the rule of :func:`pipeline.diagrams.flype.flype_code`).
+    The canonical deletion: among the (crossing, smoothing) pairs whose smoothing is
+    prime and reduced, those at crossings with the smallest crossing invariant (the
+    least :func:`~pipeline.diagrams.shadow_canonical.start_invariants` of its eight
+    starts); of these the first in the canonical labelling (crossing number, then
+    labelled type 0, 1).  The added crossing qualifies iff some best start labels it so.
+    A child failing the cheap invariant test is rejected before any walk (code None).
     """
-    keys = {}
-    best = {}
-    for tw in shadows:
-        over = alternating_over(tw)
-        c0, c1 = alternating_codes(tw, over)
-        k = min(c0, c1)
-        keys[k] = (tw, over)
-        tc = twist_count(tw)  # the class code: fewest twist regions first (flype_code)
-        best[k] = ((tc, c0), False) if c0 <= c1 else ((tc, c1), True)
-    parent = {k: k for k in keys}
+    inv = start_invariants(tw)
+    n = len(tw) // 4
+    ci = [min(inv[h, e] for h in range(4 * c, 4 * c + 4) for e in (1, -1)) for c in range(n)]
+    types = {}
 
-    def find(k):
-        while parent[k] != k:
-            parent[k] = parent[parent[k]]
-            k = parent[k]
-        return k
+    def removable(c: int) -> list[int]:
+        if c not in types:
+            types[c] = [t for t in (0, 1) if (s := smoothing(tw, c, t)) is not None and prime_reduced(s)]
+        return types[c]
 
-    for k, (tw, over) in keys.items():
-        for m in shadow_flypes(tw):
-            tw2, _ = apply_shadow_flype(tw, over, m)
-            a, b = find(k), find(_key(tw2))
-            if a != b:
-                parent[max(a, b)] = min(a, b)
-    out = {}
-    for k in keys:
-        r = find(k)
-        if r not in out or best[k] < best[out[r]]:
-            out[r] = k
-    codes = []
-    for k in out.values():
-        tw, over = keys[k]
-        flip = best[k][1]
-        codes.append(canonical_text(to_diagram(tw, [o != flip for o in over])))
-    return sorted(codes, key=_order)
+    for c in sorted(range(n), key=ci.__getitem__):
+        if ci[c] >= ci[x]:
+            break
+        if removable(c):
+            return None, False                       # a smaller crossing invariant is removable
+    low = ci[x]
+    code, labels = shadow_code(tw, inv)
+    order, ref, eps = labels[0]
+    for q in range(n):
+        if ci[order[q]] != low:
+            continue
+        for tp in (0, 1):
+            if _smoothing_type(ref[q], eps, tp) in removable(order[q]):
+                return code, any(o[q] == x and _smoothing_type(r[q], e, tp) == NEW_SMOOTHING
+                                 for o, r, e in labels)
+    return code, False  # unreachable: x itself is removable
+
+
+def _shadows(n: int, keep=None) -> Iterator[tuple[list[int], tuple[int, ...]]]:
+    """(twins, shadow code) of every prime reduced shadow with n >= 2 crossings, once each.
+
+    Depth first by canonical augmentation (module notes); ``keep`` filters the last
+    level before the canonical test (e.g. one component).
+    """
+    if n == 2:
+        tw = _hopf()
+        if keep is None or keep(tw):
+            yield tw, shadow_code(tw)[0]
+        return
+
+    def grow(tw: list[int]):
+        m = len(tw) // 4 + 1
+        seen = set()          # the accepted children of this parent (automorphic extensions)
+        for new in extensions(tw):
+            if m == n and keep is not None and not keep(new):
+                continue
+            if not prime_reduced(new):
+                continue
+            code, ok = _canonical_child(new, m - 1)
+            if not ok or code in seen:
+                continue
+            seen.add(code)
+            if m == n:
+                yield new, code
+            else:
+                yield from grow(new)
+
+    yield from grow(_hopf())
+
+
+def _class_code(tw: list[int], code: tuple[int, ...]) -> str | None:
+    """The type's code when the shadow ``tw`` (shadow code ``code``) is its canonical
+    member (the shadow of the code's diagram), else None.
+
+    Only shadows that no one flype makes smaller in
+    :func:`~pipeline.diagrams.shadow_canonical.shadow_order_key` are searched: the code's
+    diagram is the smallest member of its class in that order (the rule of
+    ``flype_code``), hence such a shadow.  That shortcut is checked on every code found
+    (a code's diagram failing it raises instead of a type silently missing): with it,
+    the smallest member of every class is searched, its code's shadow passes, and so
+    every type is emitted from that shadow, whatever member ``flype_code`` names.
+    """
+    if not flype_local_minimum(tw):
+        return None
+    a, b = flype_codes(to_diagram(tw, alternating_over(tw)))
+    if a != b:
+        da, db = diagram_of_code(a), diagram_of_code(b)
+        if alternating_codes(twins(db), [True] * db.n_crossings)[0] < \
+                alternating_codes(twins(da), [True] * da.n_crossings)[0]:
+            a = b
+    best = twins(diagram_of_code(a))
+    if not flype_local_minimum(best):
+        raise RuntimeError("alternating: a class code's diagram is not a flype-local minimum "
+                           "(the shortcut of _class_code no longer holds)")
+    return a if shadow_code(best)[0] == code else None
+
+
+_CACHE: dict[tuple[int, bool], tuple[str, ...]] = {}
+
+
+def _codes(n: int, one_component: bool) -> tuple[str, ...]:
+    """The sorted codes of the knots (``one_component``) or links with n crossings."""
+    if (n, one_component) not in _CACHE:
+        knots, links = [], []
+        keep = (lambda tw: n_components(tw) == 1) if one_component else None
+        for tw, code in (_shadows(n, keep) if n >= 2 else ()):
+            c = _class_code(tw, code)
+            if c is not None:
+                (knots if n_components(tw) == 1 else links).append(c)
+        _CACHE[n, True] = tuple(sorted(knots, key=_order))
+        if not one_component:
+            _CACHE[n, False] = tuple(sorted(links, key=_order))
+    return _CACHE[n, one_component]
 
 
 def _check_n(n: int) -> None:
     if isinstance(n, bool) or not isinstance(n, int) or not MIN_CROSSINGS <= n <= MAX_CROSSINGS:
         raise NotationError(
             f"alternating: crossings = {n!r} is outside [{MIN_CROSSINGS}, {MAX_CROSSINGS}]")
-
-
-@lru_cache(maxsize=None)
-def _codes(n: int, one_component: bool) -> tuple[str, ...]:
-    if n < 2:
-        return ()
-    if n == 2:
-        return () if one_component else tuple(_classes([list(t) for t in _level(2)]))
-    return tuple(_classes(list(_last_level(n, one_component))))
 
 
 def codes(n: int, *, links: bool = False) -> list[str]:
@@ -229,7 +300,7 @@ def random_diagram(n: int, *, seed: int = 0) -> Diagram:
     if isinstance(n, bool) or not isinstance(n, int) or n < 2:
         raise NotationError(f"alternating: random diagram size {n!r} must be an integer >= 2")
     rng = random.Random(seed)
-    tw = list(_level(2)[0])
+    tw = _hopf()
     while len(tw) < 4 * n:
         options = list(extensions(tw))
         rng.shuffle(options)
