@@ -24,7 +24,6 @@ import random
 
 import pytest
 from hypothesis import HealthCheck, example, given, settings
-from hypothesis import strategies as st
 
 from pipeline.diagrams.families import braid
 from pipeline.diagrams.notation import parse
@@ -33,14 +32,7 @@ from pipeline.invariants.khovanov import (cube_khovanov_z, integral_khovanov, kh
                                           mirror_integral, ranks_from_json, torsion_from_json, torsion_to_json,
                                           uct_ranks)
 from pipeline.invariants.khovanov import data as kh_data
-
-
-@st.composite
-def braid_words(draw, max_len: int = 7):
-    strands = draw(st.integers(2, 4))
-    gens = st.integers(1, strands - 1).flatmap(lambda i: st.sampled_from([i, -i]))
-    word = draw(st.lists(gens, min_size=1, max_size=max_len))
-    return word, strands
+from test_khovanov import braid_words  # the random braid words of the rational tests
 
 
 def test_positive_trefoil_and_its_mirror():
