@@ -137,7 +137,6 @@ def _strips(m) -> tuple:
     return tuple((None, pair) for pair in m)
 
 
-@lru_cache(maxsize=100_000)
 def _glued_table(topo, dots: frozenset, n_src: int, n_tgt: int, top0: Optional[int],
                  modulus: Optional[int]) -> tuple:
     """Every nonzero delooped entry of one glued term: ``((src eps index, tgt eps index,
@@ -163,62 +162,77 @@ def _glued_table(topo, dots: frozenset, n_src: int, n_tgt: int, top0: Optional[i
     return tuple(out)
 
 
+@lru_cache(maxsize=200_000)
+def _entries(m1, m2, smooth, saddle, dots: frozenset, dq: int, h0: bool, modulus: Optional[int]) -> tuple:
+    """:func:`_glued_table` of one term (T-side disks of ``m1 ∪ m2`` dotted at ``dots``).
+
+    ``saddle`` None: a term of T's differential ``m1 → m2`` beside the smoothing
+    ``smooth`` of the crossing; otherwise ``m1 = m2`` and the identity of T beside the
+    saddle with boundary ``saddle`` between the smoothings ``smooth = (X₀, X₁)``.  ``dq``
+    is the difference of the quantum shifts of the two objects before delooping.  One
+    memo key of small tuples per term, the glued objects and topology looked up inside.
+    """
+    if saddle is None:
+        t_pieces, x_pieces = tuple((c[0], c) for c in cycles(m1, m2)), _strips(smooth)
+        g1, g2 = _glue_object(m1, smooth), _glue_object(m2, smooth)
+    else:
+        t_pieces, x_pieces = _strips(m1), ((None, saddle),)
+        g1, g2 = _glue_object(m1, smooth[0]), _glue_object(m1, smooth[1])
+    topo = _glue_topology(t_pieces, x_pieces, g1, g2)
+    top0 = len(cycles(g1[0], g2[0])) - len(g1[0]) + dq if h0 else None
+    return _glued_table(topo, dots, len(g1[1]), len(g2[1]), top0, modulus)
+
+
 def add_crossing(cx: TangleComplex, pts: tuple[int, int, int, int], sign: int,
                  budget: Optional[int]) -> TangleComplex:
     """The complex of T ∪ X for the crossing X with boundary points ``pts`` (PD order)."""
     p0, p1, p2, p3 = pts
     smooth = (tuple(sorted(((min(p0, p1), max(p0, p1)), (min(p2, p3), max(p2, p3))))),
               tuple(sorted(((min(p0, p3), max(p0, p3)), (min(p1, p2), max(p1, p2))))))
-    strips = (_strips(smooth[0]), _strips(smooth[1]))
     heights = (0, 1) if sign > 0 else (-1, 0)
     qshift = (1, 2) if sign > 0 else (-2, -1)
     new = cx.new_like()
-    ids: dict[tuple[int, int], tuple] = {}  # (old id, smoothing) -> (glued object, {eps: new id})
+    ids: dict[tuple[int, int], list] = {}  # (old id, smoothing) -> new ids, eps in product order
+    add = new.add_object
     for o, (m, i, q) in cx.objs.items():
         for k in (0, 1):
             g = _glue_object(m, smooth[k])
-            table = [new.add_object(g[0], i + heights[k], q + qshift[k] + sum(eps))
-                     for eps in itertools.product((1, -1), repeat=len(g[1]))]
-            ids[(o, k)] = (g, table)
+            ik, qk = i + heights[k], q + qshift[k]
+            ids[(o, k)] = [add(g[0], ik, qk + sum(eps)) for eps in itertools.product((1, -1), repeat=len(g[1]))]
     if budget is not None and len(new.objs) > budget:
         raise BudgetExceeded("khovanov", budget)
     one = cx.one
+    objs = cx.objs
     for o1, targets in cx.out.items():
-        m1, _, q1 = cx.objs[o1]
+        m1, _, q1 = objs[o1]
         for o2, f in targets.items():
-            m2, _, q2 = cx.objs[o2]
-            t_pieces = tuple((c[0], c) for c in cycles(m1, m2))
+            m2, _, q2 = objs[o2]
             for k in (0, 1):
-                (g1, tab1), (g2, tab2) = ids[(o1, k)], ids[(o2, k)]
-                topo = _glue_topology(t_pieces, strips[k], g1, g2)
-                _connect(new, topo, f, g1, g2, tab1, tab2, q2 - q1, one)
-    saddle = ((None, (p0, p1, p2, p3)),)
+                _connect(new, f, ids[(o1, k)], ids[(o2, k)], (m1, m2, smooth[k], None), q2 - q1, one)
+    saddle = (p0, p1, p2, p3)
     unit = {_EMPTY: one}
-    for o, (m, i, _) in cx.objs.items():
-        (g1, tab1), (g2, tab2) = ids[(o, 0)], ids[(o, 1)]
-        topo = _glue_topology(_strips(m), saddle, g1, g2)
-        _connect(new, topo, unit, g1, g2, tab1, tab2, qshift[1] - qshift[0], -one if i % 2 else one)
+    dq = qshift[1] - qshift[0]
+    for o, (m, i, _) in objs.items():
+        _connect(new, unit, ids[(o, 0)], ids[(o, 1)], (m, m, smooth, saddle), dq, -one if i % 2 else one)
     return new
 
 
-def _connect(new: TangleComplex, topo, f: dict, g1, g2, tab1: list, tab2: list, dq: int,
-             scale) -> None:
-    """Set the glued map ``scale · (f ⊔ topo)`` between the delooped objects of g1 and g2.
+def _connect(new: TangleComplex, f: dict, tab1: list, tab2: list, where: tuple, dq: int, scale) -> None:
+    """Set the glued map ``scale · (f ⊔ X)`` between the delooped objects ``tab1``, ``tab2``.
 
-    ``dq`` is the difference of quantum shifts of the two old objects.  Every entry of
-    the new complex is written by exactly one call (the entries from the differential
-    of T join objects of the same smoothing, the saddles objects of the two smoothings
-    of one old object), so entries are assigned, not accumulated.
+    ``where`` is ``(m1, m2, smooth, saddle)`` of :func:`_entries`.  Every entry of the
+    new complex is written by exactly one call (the entries from the differential of T
+    join objects of the same smoothing, the saddles objects of the two smoothings of
+    one old object), so entries are assigned, not accumulated.
     """
-    out, inc, p = new.out, new.inc, new.modulus
-    top0 = len(cycles(g1[0], g2[0])) - len(g1[0]) + dq if new.h0 else None
-    n1, n2 = len(g1[1]), len(g2[1])
+    out, inc, p, h0 = new.out, new.inc, new.modulus, new.h0
+    m1, m2, smooth, saddle = where
     if len(f) == 1:
         ((dots, c),) = f.items()
         sc = scale * c
         if p:
             sc %= p
-        for i1, i2, terms in _glued_table(topo, dots, n1, n2, top0, p):
+        for i1, i2, terms in _entries(m1, m2, smooth, saddle, dots, dq, h0, p):
             if sc == 1:
                 mor = dict(terms)
             elif p:
@@ -232,7 +246,7 @@ def _connect(new: TangleComplex, topo, f: dict, g1, g2, tab1: list, tab2: list, 
     acc: dict = {}
     for dots, c in f.items():
         sc = scale * c
-        for i1, i2, terms in _glued_table(topo, dots, n1, n2, top0, p):
+        for i1, i2, terms in _entries(m1, m2, smooth, saddle, dots, dq, h0, p):
             mor = acc.setdefault((i1, i2), {})
             for ds, v in terms:
                 mor[ds] = mor.get(ds, 0) + sc * v
@@ -246,5 +260,5 @@ def _connect(new: TangleComplex, topo, f: dict, g1, g2, tab1: list, tab2: list, 
 
 def clear_glue_caches() -> None:
     """Empty the memo tables of local gluing."""
-    for fn in (_glue_object, _glue_topology, _glued_terms, _glued_table):
+    for fn in (_glue_object, _glue_topology, _glued_terms, _entries):
         fn.cache_clear()

@@ -95,8 +95,16 @@ class TangleComplex:
         The isomorphisms present at the start are cancelled cheapest first (least
         fill-in); an isomorphism created by a cancellation is cancelled next.
         """
-        cands = [((len(t) - 1) * (len(self.inc[b]) - 1), a, b)
-                 for a, t in self.out.items() for b in t if self._is_iso(a, b)]
+        objs, inc, any_unit = self.objs, self.inc, self.modulus != 0
+        cands = []
+        for a, t in self.out.items():  # _is_iso, inlined: this scan visits every entry
+            ma, _, qa = objs[a]
+            for b, f in t.items():
+                mb, _, qb = objs[b]
+                if qa == qb and ma == mb:
+                    c = f.get(_EMPTY)
+                    if c is not None and (any_unit or c == 1 or c == -1):
+                        cands.append(((len(t) - 1) * (len(inc[b]) - 1), a, b))
         cands.sort(reverse=True)
         stack = [(a, b) for _, a, b in cands]
         while stack:
