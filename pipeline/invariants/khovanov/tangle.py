@@ -8,15 +8,18 @@ differential whose entries are dotted cobordisms in normal form
 with the two-term complex ``X₀ → X₁{1}`` of X (shifted by ``[−n₋]{n₊ − 2n₋}`` for
 its sign), with the sign rule ``d(x ⊗ y) = dx ⊗ y + (−1)^|x| x ⊗ dy``; every closed
 loop this creates is removed by *delooping* ``○ ≅ ∅{+1} ⊕ ∅{−1}`` and every
-isomorphism (a nonzero scalar times an identity) is removed by *Gaussian elimination*
-``[[φ, δ], [γ, ε]] ≃ ε − γφ⁻¹δ`` [2]_.  The crossings are taken in the frontier order
-of :func:`pipeline.invariants.jones.frontier.crossing_order`, so the boundary and the
+isomorphism (an invertible scalar times an identity: any nonzero scalar over a field,
+±1 over Z) is removed by *Gaussian elimination* ``[[φ, δ], [γ, ε]] ≃ ε − γφ⁻¹δ`` [2]_.
+The gluing itself is :mod:`.glue`.  The crossings are taken in the frontier order of
+:func:`pipeline.invariants.jones.frontier.crossing_order`, so the boundary and the
 complexes stay small.
 
 All maps are homogeneous, so the computation is carried out in the Bar-Natan theory
 with the formal variable h kept implicit (:mod:`.cobordism`); the end result is a
-complex of free k[h]-modules with zero differential at h = 0 (its objects are a basis
-of Khovanov homology over k) whose h-torsion structure gives Rasmussen's s over Q.
+complex of free k[h]-modules with zero differential at h = 0 over a field (its objects
+are a basis of Khovanov homology over k) whose h-torsion structure gives Rasmussen's s
+over Q.  Over Z the final complex keeps its non-unit scalar entries; its homology is
+taken by a Smith normal form (:mod:`.integral`).
 
 References
 ----------
