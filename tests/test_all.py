@@ -80,7 +80,8 @@ def test_typed_row_is_frozen_and_to_record_is_the_stored_dict():
               # strength (issue 12): JSON text as the census stores it
               "homfly": json.dumps(rec["homfly"].to_json()), "khovanov": json.dumps(rec["khovanov"]),
               "khovanov_f2": rec["khovanov_f2"], "khovanov_reduced": rec["khovanov_reduced"],
-              "rasmussen_s": rec["rasmussen_s"], "tristram_levine": rec["tristram_levine"]}
+              "rasmussen_s": rec["rasmussen_s"], "tristram_levine": rec["tristram_levine"],
+              "khovanov_torsion": json.dumps(rec["khovanov_torsion"])}
     back = InvariantValues.from_record(stored)
     assert back == dataclasses.replace(row.values(), conway=None)
 

@@ -132,8 +132,10 @@ def test_page_prints_homfly_khovanov_s_and_the_signature_function(capsys):
     assert code == 0
     assert "HOMFLY-PT  P(v,z) = 2v^2 + v^2z^2 - v^4" in out
     assert "(0,1) (0,3) (2,5) (3,9)" in out
+    assert "torsion    of Kh over Z:\n             Z/2 at (3,7)" in out  # Khovanov 2000 §6.2 (memory)
     assert "s          2 (Rasmussen)" in out
     assert "values [0, -2] between jumps at θ/2π = 1/6 (σ_-1 = -2)" in out
     # the figure-eight: P = v⁻² − 1 − z² + v² (memory), amphichiral, so no jump
     code, out, _ = _run(capsys, "conway:2 2")
     assert "P(v,z) = v^(-2) - 1 - z^2 + v^2" in out and "θ/2π = none" in out
+    assert "Z/2 at (-1,-3) Z/2 at (2,3)" in out  # Bar-Natan 2002, tables (memory)

@@ -41,7 +41,7 @@ chunk_size = 8
 """
 
 STRENGTH = ("homfly", "khovanov", "khovanov_f2", "khovanov_reduced", "rasmussen_s", "kh_width",
-            "tristram_levine")
+            "tristram_levine", "khovanov_torsion")
 
 
 @pytest.fixture(scope="module")
@@ -92,6 +92,24 @@ def test_torus_knots_have_published_s_and_mirror_relations(census):
             assert P_m == P.mirror()
             assert mirror["rasmussen_s"] == -row["rasmussen_s"]
             assert row["chirality"].startswith("chiral")
+
+
+def test_torsion_column_end_to_end(census):
+    """khovanov_torsion as stored: T(2,n) has Z/2 at (2k+1, n+4k) *(memory: Khovanov, Duke
+    Math. J. 101 (2000), §6.2)*, the mirror moves torsion to (1 − i, −j) (dual complex),
+    and universal coefficients (Hatcher 2002, Thm. 3.2) give the stored F₂ ranks."""
+    from pipeline.invariants.khovanov import torsion_from_json, uct_ranks
+    rows = {r["notation"]: r for r in census}
+    assert all(r["khovanov_torsion"] is not None for r in census)
+    for n in (3, 5, 7):
+        tors = torsion_from_json(json.loads(rows[f"torus:2,{n}"]["khovanov_torsion"]))
+        assert tors == {(2 * k + 1, n + 4 * k): {2: 1} for k in range(1, (n - 1) // 2 + 1)}
+        mirror = torsion_from_json(json.loads(rows[f"torus:2,{-n}"]["khovanov_torsion"]))
+        assert mirror == {(1 - i, -j): ms for (i, j), ms in tors.items()}
+    for r in census:
+        free = ranks_from_json(json.loads(r["khovanov"]))
+        tors = torsion_from_json(json.loads(r["khovanov_torsion"]))
+        assert uct_ranks(free, tors, 2) == ranks_from_json(json.loads(r["khovanov_f2"])), r["notation"]
 
 
 def test_alternating_two_bridge_knots_s_is_minus_signature(census):

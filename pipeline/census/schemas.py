@@ -23,7 +23,7 @@ __all__ = [
 ]
 
 #: Bumped whenever a column is added, removed or changes type.
-SCHEMA_VERSION = "2"   # 2: simplified_*, prime*, flype_code (issue 11); homfly, khovanov, ..., tristram_levine (issue 12)
+SCHEMA_VERSION = "3"   # 2: simplified_*, prime*, flype_code (issue 11); homfly, khovanov, ..., tristram_levine (issue 12); 3: khovanov_torsion
 
 INT64_MIN, INT64_MAX = -(2 ** 63), 2 ** 63 - 1
 
@@ -80,6 +80,7 @@ DIAGRAMS = pa.schema([
     _f("rasmussen_s", pa.int32()),
     _f("kh_width", pa.int32()),
     _f("tristram_levine", pa.string()),
+    _f("khovanov_torsion", pa.string()),
     # ---- end strength
     _f("chirality", pa.string()),
     _f("chirality_reason", pa.string()),

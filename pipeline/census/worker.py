@@ -42,7 +42,7 @@ _CONSUMED = {"crossings", "components", "free_loops", "writhe", "alternating", "
              "chirality_reason", "checks", "checks_failed", "status", "timings",
              # strength (issue 12)
              "homfly", "khovanov", "khovanov_f2", "khovanov_reduced", "rasmussen_s", "kh_width",
-             "tristram_levine"}
+             "tristram_levine", "khovanov_torsion"}
 
 
 class ChunkTimeout(BaseException):
@@ -163,7 +163,7 @@ def _fill_strength(row: dict, inv: dict) -> None:
     row["homfly"] = None if P is None else text(P.to_json())
     row["homfly_terms"] = None if P is None else [{"v": int(a), "z": int(b), "c": str(int(c))}
                                                   for (a, b), c in P.terms]
-    for name in ("khovanov", "khovanov_f2", "khovanov_reduced", "tristram_levine"):
+    for name in ("khovanov", "khovanov_f2", "khovanov_reduced", "tristram_levine", "khovanov_torsion"):
         row[name] = text(inv.get(name))
     for name in ("rasmussen_s", "kh_width"):
         v = inv.get(name)

@@ -36,7 +36,7 @@ ALGORITHM_VERSIONS = {
     # --- end: issue 11 ---
     # ---- strength (issue 12)
     "homfly": "1",
-    "khovanov": "1",
+    "khovanov": "2",  # 2: one run over Z (torsion; F₂ by universal coefficients above 12 crossings)
     "tristram_levine": "1",
     # ---- end strength
 }
@@ -80,7 +80,8 @@ def compute_all(diagram: Diagram, *, max_modulus: int = 16, jones_budget: Option
     ``checks`` ({name: bool}), ``checks_failed`` (list of names), ``status``,
     ``timings`` (seconds per invariant); and (issue 12) ``homfly`` (HPoly or None),
     ``khovanov``, ``khovanov_f2``, ``khovanov_reduced`` ([[i, j, rank]] or None),
-    ``rasmussen_s``, ``kh_width`` (int or None), ``tristram_levine`` (dict or None).
+    ``rasmussen_s``, ``kh_width`` (int or None), ``tristram_levine`` (dict or None),
+    ``khovanov_torsion`` ([[i, j, m, multiplicity]] or None).
     """
     return compute_row(diagram, max_modulus=max_modulus, jones_budget=jones_budget,
                        min_colors_budget=min_colors_budget, notation=notation,
@@ -102,10 +103,13 @@ def compute_row(diagram: Diagram, *, max_modulus: int = 16, jones_budget: Option
     against the general frontier programme.
 
     ``homfly_budget`` bounds the HOMFLY-PT skein route (and n!·length on the braid
-    route), ``khovanov_budget`` the Khovanov complexes (every run: Q, F₂, and Q[h] for
-    the s of a thick knot); None means no limit, 0 skips the invariant.  Over budget the
-    value is None and ``status`` says ``skipped: homfly budget N`` /
-    ``skipped: khovanov budget N``; the checks needing it are omitted.
+    route), ``khovanov_budget`` the Khovanov complexes (every run: Z — or Q and F₂ when
+    the run over Z is over budget —, F₂ again for diagrams of at most 12 crossings, and
+    Q[h] for the s of a thick knot; :mod:`pipeline.invariants.khovanov.data`); None means
+    no limit, 0 skips the invariant.  Over budget the value is None and ``status`` says
+    ``skipped: homfly budget N`` / ``skipped: khovanov budget N`` (``skipped: khovanov
+    budget N (integral)`` when only the torsion is missing); the checks needing it are
+    omitted.
     """
     from . import bounds, checks, chirality, signature
     from .alexander import fox as alexander
@@ -193,13 +197,15 @@ def _strength(diagram: Diagram, notation, homfly_budget: Optional[int], khovanov
     from .tristram_levine import signature_function
 
     out: dict = dict.fromkeys(("homfly", "khovanov", "khovanov_f2", "rasmussen_s", "kh_width",
-                               "khovanov_reduced", "tristram_levine"))
+                               "khovanov_reduced", "tristram_levine", "khovanov_torsion"))
     out["homfly"] = _attempt(problems, timings, "homfly", lambda: homfly_polynomial(
         diagram, notation=notation, budget=homfly_budget, braid_budget=homfly_budget))
     kh = _attempt(problems, timings, "khovanov", lambda: khovanov_data(diagram, budget=khovanov_budget))
     if kh is not None:
         out.update(khovanov=kh.khovanov, khovanov_f2=kh.khovanov_f2, rasmussen_s=kh.rasmussen_s,
-                   kh_width=kh.kh_width, khovanov_reduced=kh.khovanov_reduced)
+                   kh_width=kh.kh_width, khovanov_reduced=kh.khovanov_reduced,
+                   khovanov_torsion=kh.khovanov_torsion)
+        problems.extend(kh.skipped)  # e.g. the run over Z over budget: torsion not computed
     tl = _attempt(problems, timings, "tristram_levine",
                   lambda: signature_function(diagram, notation=notation))
     out["tristram_levine"] = None if tl is None else tl.to_json()
@@ -208,9 +214,10 @@ def _strength(diagram: Diagram, notation, homfly_budget: Optional[int], khovanov
 
 def _strength_values(strong: dict) -> dict:
     """The :class:`InvariantValues` fields of :func:`_strength`'s output."""
-    from .row import _rank_dict
+    from .row import _rank_dict, _torsion_dict
     return {"homfly": strong["homfly"], "khovanov": _rank_dict(strong["khovanov"]),
             "khovanov_f2": _rank_dict(strong["khovanov_f2"]),
             "khovanov_reduced": _rank_dict(strong["khovanov_reduced"]),
-            "rasmussen_s": strong["rasmussen_s"], "tristram_levine": strong["tristram_levine"]}
+            "rasmussen_s": strong["rasmussen_s"], "tristram_levine": strong["tristram_levine"],
+            "khovanov_torsion": _torsion_dict(strong["khovanov_torsion"])}
 # ---- end strength

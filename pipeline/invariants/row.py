@@ -47,6 +47,18 @@ def _rank_dict(v: Any) -> Optional[dict]:
     if v is None or isinstance(v, dict):
         return v
     return {(int(i), int(j)): int(r) for i, j, r in v}
+
+
+def _torsion_dict(v: Any) -> Optional[dict]:
+    """Torsion of integral Kh {(i, j): {m: multiplicity}} from [[i, j, m, mult]], JSON text
+    or a dict."""
+    v = _json(v)
+    if v is None or isinstance(v, dict):
+        return v
+    out: dict = {}
+    for i, j, m, c in v:
+        out.setdefault((int(i), int(j)), {})[int(m)] = int(c)
+    return out
 # ---- end strength readers
 
 __all__ = ["InvariantValues", "CensusRow"]
@@ -102,6 +114,7 @@ class InvariantValues:
     khovanov_reduced: Optional[dict] = None  # knots: reduced ranks over Q
     rasmussen_s: Optional[int] = None
     tristram_levine: Optional[dict] = None   # SignatureFunction.to_json()
+    khovanov_torsion: Optional[dict] = None  # {(i, j): {m: multiplicity}} of integral Kh
     # ---- end strength
 
     @classmethod
@@ -124,7 +137,8 @@ class InvariantValues:
                    khovanov_f2=_rank_dict(g("khovanov_f2")),
                    khovanov_reduced=_rank_dict(g("khovanov_reduced")),
                    rasmussen_s=_int_or_none(g("rasmussen_s")),
-                   tristram_levine=_json(g("tristram_levine")))
+                   tristram_levine=_json(g("tristram_levine")),
+                   khovanov_torsion=_torsion_dict(g("khovanov_torsion")))
 
     @classmethod
     def coerce(cls, values: "InvariantValues | Mapping[str, Any]") -> "InvariantValues":
@@ -161,6 +175,7 @@ class CensusRow:
     kh_width: Optional[int] = None
     khovanov_reduced: Optional[list] = None
     tristram_levine: Optional[dict] = None
+    khovanov_torsion: Optional[list] = None
     # ---- end strength
     bounds: Optional[dict] = None
     chirality: str = "unknown"
@@ -180,7 +195,8 @@ class CensusRow:
                                homfly=self.homfly, khovanov=_rank_dict(self.khovanov),
                                khovanov_f2=_rank_dict(self.khovanov_f2),
                                khovanov_reduced=_rank_dict(self.khovanov_reduced),
-                               rasmussen_s=self.rasmussen_s, tristram_levine=self.tristram_levine)
+                               rasmussen_s=self.rasmussen_s, tristram_levine=self.tristram_levine,
+                               khovanov_torsion=_torsion_dict(self.khovanov_torsion))
 
     def to_record(self) -> dict[str, Any]:
         """The row as the dict the census writer stores (lists for sequences, copies of

@@ -29,6 +29,11 @@ khovanov_alternating_rank       reduced     Σ rank Kh = det + 1                
                                 alt. knots
 rasmussen_alternating           reduced     s = −σ                                      Lee 2005; Rasmussen 2010
                                 alt. knots
+khovanov_uct                    ≤ 12        Kh₂^{i,j} = free^{i,j} + t₂^{i,j} +         universal coefficients: Hatcher
+                                crossings   t₂^{i+1,j} (Kh over Z: free ranks = Kh,     2002, Thm. 3.2
+                                            t₂ = number of even invariant factors)
+khovanov_alternating_torsion    reduced     every torsion summand of Kh over Z is Z/2   Shumakovitch 2014
+                                alt. knots
 ==============================  ==========  ==========================================  =================================
 
 Signs: the project's σ has σ(positive trefoil) = −2 and s is normalised so that positive
@@ -36,6 +41,9 @@ torus knots have s = (p − 1)(q − 1) (Rasmussen), so for alternating knots s 
 two diagonals are j − 2i = s ± 1 (positive trefoil: ranks at (0,1), (0,3), (2,5), (3,9),
 δ ∈ {1, 3}).  The genus bound uses the canonical Seifert surface of the diagram, of genus
 (n − #circles + 1)/2 for a knot (Seifert's algorithm), which bounds g ≥ g₄ from above.
+``khovanov_uct`` applies where Kh₂ has a run of its own (diagrams of at most
+``INDEPENDENT_F2_CROSSINGS`` = 12 crossings, :mod:`pipeline.invariants.khovanov.data`);
+above, Kh₂ is computed from Kh over Z by that relation, and checking it would be empty.
 
 References
 ----------
@@ -50,6 +58,10 @@ References
    quasi-alternating links", Proc. Gökova Geometry-Topology Conference (2008).
 6. A. G. Tristram, Proc. Cambridge Philos. Soc. 66 (1969); J. Levine, Comment. Math.
    Helv. 44 (1969).
+7. A. Hatcher, *Algebraic Topology*, Cambridge University Press (2002), Thm. 3.2 (universal
+   coefficients, for a cochain complex of free abelian groups).
+8. A. Shumakovitch, "Torsion of Khovanov homology", Fund. Math. 225 (2014): non-split
+   alternating links have only Z/2 torsion.
 """
 
 from __future__ import annotations
@@ -65,7 +77,8 @@ STRENGTH_CHECK_NAMES = (
     "khovanov_reduced_euler_jones", "khovanov_f2_dominates", "khovanov_lee_generators",
     "rasmussen_even", "rasmussen_seifert_bound", "rasmussen_four_genus_agree",
     "tristram_levine_at_minus_one", "khovanov_alternating_diagonals",
-    "khovanov_alternating_rank", "rasmussen_alternating",
+    "khovanov_alternating_rank", "rasmussen_alternating", "khovanov_uct",
+    "khovanov_alternating_torsion",
 )
 
 
@@ -142,6 +155,12 @@ def strength_checks(diagram: Diagram, values: InvariantValues, *, knot: bool) ->
         out["rasmussen_seifert_bound"] = abs(s) <= upper2
         if sig is not None:
             out["rasmussen_four_genus_agree"] = max(abs(sig), abs(s)) <= upper2
+    tors = values.khovanov_torsion
+    if kh is not None and kh2 is not None and tors is not None:
+        from .khovanov.data import INDEPENDENT_F2_CROSSINGS
+        from .khovanov.integral import uct_ranks
+        if n <= INDEPENDENT_F2_CROSSINGS:
+            out["khovanov_uct"] = uct_ranks(kh, tors, 2) == {k: r for k, r in kh2.items() if r}
     tl = values.tristram_levine
     if tl is not None and sig is not None:
         out["tristram_levine_at_minus_one"] = int(tl["at_minus_one"]) == sig
@@ -152,4 +171,6 @@ def strength_checks(diagram: Diagram, values: InvariantValues, *, knot: bool) ->
                 out["khovanov_alternating_rank"] = sum(kh.values()) == det + 1
         if s is not None:
             out["rasmussen_alternating"] = s == -sig
+    if knot and n and diagram.is_alternating() and is_reduced(diagram) and tors is not None:
+        out["khovanov_alternating_torsion"] = all(set(ms) <= {2} for ms in tors.values())
     return out

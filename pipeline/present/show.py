@@ -307,7 +307,7 @@ def _homfly_text(value) -> str:
 
 
 def _strength_lines(row: dict) -> list[str]:
-    """HOMFLY-PT, Khovanov ranks, Rasmussen's s and σ_ω jumps (the census columns)."""
+    """HOMFLY-PT, Khovanov ranks and torsion, Rasmussen's s and σ_ω jumps (the census columns)."""
     lines = []
     if "homfly" in row:
         P = row["homfly"]
@@ -320,6 +320,15 @@ def _strength_lines(row: dict) -> list[str]:
             ranks = [f"({i},{j}):{r}" if r != 1 else f"({i},{j})" for i, j, r in kh]
             head = f"  Khovanov   over Q, (i,j):rank, width {row.get('kh_width')}: "
             lines += [head.rstrip()] + _wrap(ranks, " " * 13)
+    if "khovanov_torsion" in row:
+        tors = row["khovanov_torsion"]
+        if tors is None:
+            lines.append("  torsion    of Kh over Z: not computed")
+        elif not tors:
+            lines.append("  torsion    of Kh over Z: none")
+        else:
+            parts = [(f"Z/{m}" if c == 1 else f"(Z/{m})^{c}") + f" at ({i},{j})" for i, j, m, c in tors]
+            lines += ["  torsion    of Kh over Z:"] + _wrap(parts, " " * 13)
     if row.get("rasmussen_s") is not None:
         lines.append(f"  s          {row['rasmussen_s']} (Rasmussen)")
     tl = row.get("tristram_levine")

@@ -65,17 +65,25 @@ DENSE_LIMIT = 24
 
 @lru_cache(maxsize=64)
 def _smith(diagram: Diagram) -> tuple[tuple[int, ...], int, int]:
-    """(Smith diagonal entries ≠ 1 ascending, rank, columns) of the colouring matrix.
-
-    Stages, each keeping the Smith form: ±1 pivots eliminated sparsely; while the
-    entries left have a common factor g > 1, divide it out (Smith(g·A) = g·Smith(A)) and
-    eliminate the ±1 pivots that appear; if more than ``DENSE_LIMIT`` rows remain,
-    sparse Euclidean diagonalisation (stopped if fill-in grows past eight times the
-    start); the rest by dense ``fmpz_mat.snf``.  The diagonal entries collected are put
-    in Smith order by a coprime base.
-    """
+    """(Smith diagonal entries ≠ 1 ascending, rank, columns) of the colouring matrix
+    (:func:`sparse_smith`)."""
     rows, col_rows = _rows_and_columns(diagram)
-    ncols = len(col_rows)
+    factors, rank = sparse_smith(rows, col_rows)
+    return factors, rank, len(col_rows)
+
+
+def sparse_smith(rows: list[dict[int, int]], col_rows) -> tuple[tuple[int, ...], int]:
+    """(Smith invariant factors ≠ 1 ascending, rank) of a sparse integer matrix.
+
+    ``rows``: sparse rows without zero entries; ``col_rows``: the row indices of every
+    column (list or dict, as in :func:`.sparse_elimination.eliminate_units`); both are
+    consumed.  Stages, each keeping the Smith form: ±1 pivots eliminated sparsely;
+    while the entries left have a common factor g > 1, divide it out
+    (Smith(g·A) = g·Smith(A)) and eliminate the ±1 pivots that appear; if more than
+    ``DENSE_LIMIT`` rows remain, sparse Euclidean diagonalisation (stopped if fill-in
+    grows past eight times the start); the rest by dense ``fmpz_mat.snf``.  The diagonal
+    entries collected are put in Smith order by a coprime base.
+    """
     rest, pivots = eliminate_units(rows, col_rows)  # the rows are ours: eliminated in place
     rank = len(pivots)
     entries: list[int] = []
@@ -103,7 +111,7 @@ def _smith(diagram: Diagram) -> tuple[tuple[int, ...], int, int]:
         found.extend(_dense_smith_diagonal(rest))
     entries.extend(scale * d for d in found)
     rank += len(entries)
-    return tuple(smith_of_diagonal(entries)), rank, ncols
+    return tuple(smith_of_diagonal(entries)), rank
 
 
 def _dense_smith_diagonal(rest: list[dict[int, int]]) -> list[int]:

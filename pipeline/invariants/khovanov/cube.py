@@ -36,7 +36,7 @@ import flint
 
 from ...diagrams.diagram import Diagram
 
-__all__ = ["cube_khovanov"]
+__all__ = ["cube_khovanov", "cube_khovanov_z"]
 
 
 def _loops(pd, state) -> tuple[list[frozenset], dict[int, int]]:
@@ -78,6 +78,50 @@ def cube_khovanov(diagram: Diagram, *, modulus: int = 0, reduced: bool = False) 
     dict
         ``{(i, j): rank}``, nonzero ranks only.
     """
+    index, entries = _cube_complex(diagram, reduced)
+    ranks = {}
+    for key, ent in entries.items():
+        rows = len(index[(key[0] + 1, key[1])])
+        cols = len(index[key])
+        ranks[key] = _rank(rows, cols, ent, modulus)
+    out = {}
+    for (i, j), gens in index.items():
+        h = len(gens) - ranks.get((i, j), 0) - ranks.get((i - 1, j), 0)
+        if h:
+            out[(i, j)] = h
+    return out
+
+
+def cube_khovanov_z(diagram: Diagram) -> tuple[dict, dict]:
+    """Integral Kh from the cube: ``({(i, j): free rank}, {(i, j): {m: multiplicity}})``.
+
+    Each block ``d^{i,j}`` of the cube complex is put in Smith normal form by python-flint's
+    dense ``fmpz_mat.snf``: its rank r and invariant factors m > 1 give the free rank
+    ``dim C^{i,j} − r^{i,j} − r^{i−1,j}`` and the torsion ``⊕ Z/m`` of ``Kh^{i+1,j}``.
+    """
+    index, entries = _cube_complex(diagram, False)
+    ranks, torsion = {}, {}
+    for (i, j), ent in entries.items():
+        mat = flint.fmpz_mat(len(index[(i + 1, j)]), len(index[(i, j)]))
+        for (r, c), v in ent.items():
+            mat[r, c] = v
+        snf = mat.snf()
+        diag = [abs(int(snf[k, k])) for k in range(min(snf.nrows(), snf.ncols()))]
+        ranks[(i, j)] = sum(1 for d in diag if d)
+        for d in diag:
+            if d > 1:
+                torsion.setdefault((i + 1, j), defaultdict(int))[d] += 1
+    free = {}
+    for (i, j), gens in index.items():
+        h = len(gens) - ranks.get((i, j), 0) - ranks.get((i - 1, j), 0)
+        if h:
+            free[(i, j)] = h
+    return dict(sorted(free.items())), {k: dict(sorted(v.items())) for k, v in sorted(torsion.items())}
+
+
+def _cube_complex(diagram: Diagram, reduced: bool) -> tuple[dict, dict]:
+    """Generators ``{(i, j): {(state, v₋ bits): index}}`` and the blocks of the
+    differential ``{(i, j): {(row, col): ±1}}`` (``C^{i,j} → C^{i+1,j}``)."""
     pd = diagram.pd
     n = len(pd)
     signs = diagram.signs
@@ -149,17 +193,7 @@ def cube_khovanov(diagram: Diagram, *, modulus: int = 0, reduced: bool = False) 
                 for img in images:
                     row = index[(i + 1, j)][(t, img)]
                     entries[(i, j)][(row, col)] = sign
-    ranks = {}
-    for key, ent in entries.items():
-        rows = len(index[(key[0] + 1, key[1])])
-        cols = len(index[key])
-        ranks[key] = _rank(rows, cols, ent, modulus)
-    out = {}
-    for (i, j), gens in index.items():
-        h = len(gens) - ranks.get((i, j), 0) - ranks.get((i - 1, j), 0)
-        if h:
-            out[(i, j)] = h
-    return out
+    return index, entries
 
 
 def _rank(rows: int, cols: int, entries: dict, modulus: int) -> int:

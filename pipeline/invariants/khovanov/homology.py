@@ -25,7 +25,6 @@ References
 from __future__ import annotations
 
 from collections import Counter
-from dataclasses import dataclass
 from typing import Optional
 
 import flint
@@ -33,38 +32,13 @@ import flint
 from ...diagrams.diagram import Diagram
 from ...errors import BudgetExceeded, DiagramError
 from ..poly import Laurent
-from .tangle import TangleComplex, close_cut, reduced_complex
+from .tangle import TangleComplex, reduced_complex
 
-__all__ = ["KhovanovData", "khovanov_homology", "reduced_khovanov", "khovanov_data", "rasmussen_s",
+__all__ = ["khovanov_homology", "reduced_khovanov", "rasmussen_s",
            "kh_width", "thin_s",
            "ranks_to_json", "ranks_from_json", "mirror_ranks", "jones_from_khovanov"]
 
 Ranks = dict[tuple[int, int], int]
-
-
-@dataclass(frozen=True)
-class KhovanovData:
-    """Everything one computation gives: the census columns of Khovanov homology.
-
-    Attributes
-    ----------
-    khovanov : list of [i, j, rank]
-        Ranks over Q, sorted, nonzero only (JSON column ``khovanov``).
-    khovanov_f2 : list of [i, j, rank]
-        Ranks over F₂ (JSON column ``khovanov_f2``).
-    rasmussen_s : int or None
-        Rasmussen's s over Q for a knot, None for a link.
-    kh_width : int
-        Number of diagonals ``j − 2i`` on which Kh over Q is supported.
-    khovanov_reduced : list of [i, j, rank] or None
-        Reduced Khovanov homology over Q for a knot (unknot: [[0, 0, 1]]), None for a link.
-    """
-
-    khovanov: list
-    khovanov_f2: list
-    rasmussen_s: Optional[int]
-    kh_width: int
-    khovanov_reduced: Optional[list] = None
 
 
 def _check_budget(budget) -> None:
@@ -74,14 +48,16 @@ def _check_budget(budget) -> None:
         raise BudgetExceeded("khovanov", budget)
 
 
-def _one(field: int):
+def _coefficients(field: int) -> dict:
+    """Keyword arguments of :func:`.tangle.reduced_complex` for Q (field 0) or F_p:
+    ``flint.fmpq`` over Q, Python ints reduced mod p over F_p (faster than ``nmod``)."""
     if isinstance(field, bool) or not isinstance(field, int) or field < 0 or field == 1:
         raise ValueError(f"khovanov: field {field!r} must be 0 (the rationals) or a prime")
     if field == 0:
-        return flint.fmpq(1)
+        return {"one": flint.fmpq(1)}
     if any(field % d == 0 for d in range(2, int(field ** 0.5) + 1)):
         raise ValueError(f"khovanov: field {field} is not a prime")
-    return flint.nmod(1, field)
+    return {"one": 1, "modulus": field}
 
 
 def _ranks(cx: TangleComplex, free_loops: int) -> Ranks:
@@ -127,9 +103,9 @@ def khovanov_homology(diagram: Diagram, *, field: int = 0, budget: Optional[int]
     >>> khovanov_homology(parse("torus:2,3"))
     {(0, 1): 1, (0, 3): 1, (2, 5): 1, (3, 9): 1}
     """
-    one = _one(field)
+    ring = _coefficients(field)
     _check_budget(budget)
-    return _ranks(reduced_complex(diagram, one, budget=budget, h0=True), diagram.free_loops)
+    return _ranks(reduced_complex(diagram, budget=budget, h0=True, **ring), diagram.free_loops)
 
 
 def _free_degrees(cx: TangleComplex) -> list[tuple[int, int]]:
@@ -226,11 +202,11 @@ def reduced_khovanov(diagram: Diagram, *, field: int = 0, budget: Optional[int] 
     {(0, 2): 1, (2, 6): 1, (3, 8): 1}
     """
     _require_knot(diagram, "reduced_khovanov")
-    one = _one(field)
+    ring = _coefficients(field)
     _check_budget(budget)
     if diagram.n_crossings == 0:
         return {(0, 0): 1}
-    return _ranks(reduced_complex(diagram, one, budget=budget, keep_cut=True, h0=True), 0)
+    return _ranks(reduced_complex(diagram, budget=budget, keep_cut=True, h0=True, **ring), 0)
 
 
 def thin_s(ranks: Ranks) -> Optional[int]:
@@ -247,39 +223,6 @@ def thin_s(ranks: Ranks) -> Optional[int]:
     if len(diagonals) == 2 and diagonals[1] - diagonals[0] == 2:
         return diagonals[0] + 1
     return None
-
-
-def khovanov_data(diagram: Diagram, *, budget: Optional[int] = None) -> KhovanovData:
-    """Kh over Q and F₂, s and reduced Kh over Q (knots), width.
-
-    Kh over Q and its reduced form come from one run of the local algorithm in
-    Khovanov's theory (h = 0), Kh over F₂ from a second run.  For a knot, s is read off
-    a thin Kh over Q (:func:`thin_s`); only a thick knot gets the slower run over Q[h]
-    (:func:`rasmussen_s`), under the same budget.
-
-    Raises
-    ------
-    BudgetExceeded
-        ``skipped: khovanov budget N`` when any run grows past ``budget``.
-    """
-    _check_budget(budget)
-    knot = diagram.n_components == 1
-    reduced = None
-    cx = reduced_complex(diagram, flint.fmpq(1), budget=budget, keep_cut=True, h0=True)
-    if diagram.n_crossings:
-        if knot:
-            reduced = ranks_to_json(_ranks(cx, 0))
-        cx = close_cut(cx)
-    elif knot:
-        reduced = [[0, 0, 1]]
-    q_ranks = _ranks(cx, diagram.free_loops)
-    s = None
-    if knot:
-        s = thin_s(q_ranks)
-        if s is None:
-            s = _s_from_complex(reduced_complex(diagram, flint.fmpq(1), budget=budget))
-    f2 = _ranks(reduced_complex(diagram, flint.nmod(1, 2), budget=budget, h0=True), diagram.free_loops)
-    return KhovanovData(ranks_to_json(q_ranks), ranks_to_json(f2), s, kh_width(q_ranks), reduced)
 
 
 def ranks_to_json(ranks: Ranks) -> list[list[int]]:
