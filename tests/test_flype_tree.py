@@ -23,13 +23,12 @@ from pipeline.diagrams.canonical import turn_over_pd
 from pipeline.diagrams.diagram import Diagram
 from pipeline.diagrams.families.alternating import _level, random_diagram
 from pipeline.diagrams.flype import (
-    check_reduced_prime_alternating, diagram_of_code, flype_code, flype_codes, flypes)
+    check_reduced_prime_alternating, diagram_of_code, flype_code, flype_codes, flypes, orbit_roots)
 from pipeline.diagrams.flype_circuits import gathered_states
 from pipeline.diagrams.flype_realize import medial, realize
 from pipeline.diagrams.flype_tree import tree_codes, tree_codes_of
 from pipeline.diagrams.shadow import (
-    alternating_codes, alternating_over, apply_shadow_flype, n_components, prime_reduced,
-    shadow_flypes, to_diagram)
+    alternating_codes, alternating_over, n_components, prime_reduced, to_diagram)
 from pipeline.errors import NotationError
 from pipeline.invariants.jones import jones_polynomial
 from test_flype import _shuffled
@@ -47,29 +46,10 @@ def _all_diagrams(n):
     return out
 
 
-def _orbit_partition(diags):
-    """Root of every diagram's flype orbit (union of one-flype steps)."""
-    par = {k: k for k in diags}
-
-    def find(k):
-        while par[k] != k:
-            par[k] = par[par[k]]
-            k = par[k]
-        return k
-
-    for k, (tw, o) in diags.items():
-        for m in shadow_flypes(tw):
-            k2 = alternating_codes(*apply_shadow_flype(tw, o, m))[0]
-            a, b = find(k), find(k2)
-            if a != b:
-                par[max(a, b)] = min(a, b)
-    return {k: find(k) for k in diags}
-
-
 @pytest.mark.parametrize("n", [*range(3, 10), pytest.param(10, marks=pytest.mark.slow)])
 def test_partition_equals_the_flype_orbits_on_every_diagram(n):
     diags = _all_diagrams(n)
-    orbit = _orbit_partition(diags)
+    orbit = orbit_roots(diags)
     codes = {k: tree_codes_of(*st) for k, st in diags.items()}
     same_orbit, same_code = {}, {}
     for k in diags:

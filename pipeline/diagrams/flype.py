@@ -98,6 +98,7 @@ __all__ = [
     "apply_flype",
     "flypes",
     "flype_orbit",
+    "orbit_roots",
     "flype_code",
     "flype_codes",
     "flype_code_by_orbit",
@@ -216,6 +217,30 @@ def _orbit_states(diagram: Diagram, budget: int) -> dict:
                 states[code] = (tw2, over2)
                 queue.append((tw2, over2))
     return states
+
+
+def orbit_roots(diagrams: dict) -> dict:
+    """{key: root}: the flype orbits of a set of diagrams closed under flypes.
+
+    ``diagrams`` maps each alternating map code (``alternating_codes(...)[0]``) to its
+    (twins, over); two keys get the same root iff one-flype steps join them (the
+    reference partition of the tests and benchmarks; a key missing from ``diagrams``
+    raises KeyError, i.e. the set was not closed).
+    """
+    par = {k: k for k in diagrams}
+
+    def find(k):
+        while par[k] != k:
+            par[k] = par[par[k]]
+            k = par[k]
+        return k
+
+    for k, (tw, over) in diagrams.items():
+        for m in shadow_flypes(tw):
+            a, b = find(k), find(alternating_codes(*apply_shadow_flype(tw, over, m))[0])
+            if a != b:
+                par[max(a, b)] = min(a, b)
+    return {k: find(k) for k in diagrams}
 
 
 def _gathered(diagram: Diagram, budget: int) -> dict:
