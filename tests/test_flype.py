@@ -144,16 +144,16 @@ def test_gathered_search_budget_raises_instead_of_guessing():
     # conway:2 2 2 2 2 2 has four members with the fewest twist regions (whole-orbit count)
     d = parse("conway:2 2 2 2 2 2")
     orbit = flype_orbit(d)
-    assert flype_code(d) == orbit[0]
+    assert flype_code(d, route="gathered") == orbit[0]
     with pytest.raises(BudgetExceeded, match="flype budget 2"):
-        flype_code(d, budget=2)
+        flype_code(d, budget=2, route="gathered")
 
 
 def test_orbit_members_are_diagrams_of_the_code_type():
     d = parse("montesinos:1/3,2/5,2/7")
     orbit = flype_orbit(d)
     assert canonical_text(d) in orbit
-    assert flype_code(d) == orbit[0]
+    assert flype_code(d, route="orbit") == orbit[0]
 
 
 @pytest.mark.parametrize("seed", range(8))
@@ -248,4 +248,4 @@ def test_fast_code_equals_the_whole_orbit_search_on_larger_random_diagrams():
 def test_fast_code_equals_the_whole_orbit_search_on_two_bridge_chains():
     for text in ["conway:3 2 2 3 2", "conway:2 2 2 2 2 2", "conway:2 1 1 2 2", "conway:3 1 1 1 3"]:
         d = parse(text)
-        assert flype_code(d) == flype_code_by_orbit(d), text
+        assert flype_code(d, route="gathered") == flype_code_by_orbit(d), text

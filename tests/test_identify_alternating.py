@@ -163,16 +163,12 @@ def test_links_hopf_and_torus_2_4():
 
 # ---------------------------------------------------------------------- budgets
 def test_budgets_give_fallbacks_never_other_keys():
-    fell = 0
+    # the flype key is the compositional code (no search), so a tiny flype budget changes
+    # nothing; a budget that runs out would give a fallback, never another key
     for i in range(1, 19):
         full = _row(f"alt:8:{i}")
         low = _row(f"alt:8:{i}", flype_budget=1)
-        if low["proof"] == "normal form":
-            assert low["knot_key"] == full["knot_key"]
-        else:
-            fell += 1
-            assert low["knot_key"].startswith("fp:") and "flype budget 1" in low["key_reason"]
-    assert fell > 0
+        assert low["proof"] == "normal form" and low["knot_key"] == full["knot_key"]
     kink = _row("braid:1,1,1,2", simplify_budget=0)
     assert kink["proof"] == "fingerprint only" and "simplify budget 0" in kink["key_reason"]
     assert _row("braid:1,1,1,2")["knot_key"] == "torus:2,3"

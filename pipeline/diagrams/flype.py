@@ -1,4 +1,4 @@
-"""Flypes of alternating diagrams and a canonical code of a flype class.
+"""Flypes of alternating diagrams and canonical codes of a flype class.
 
 A *flype* (P. G. Tait's move, named by Menasco–Thistlethwaite) acts on a tangle
 picture ``[c] T`` made of one crossing ``c`` beside a 4-ended tangle ``T`` (two ends
@@ -15,29 +15,31 @@ prime links on S² represent the same (unoriented) link iff they are related by 
 finite sequence of flypes (and isotopies of S²).  Hence the *flype class* of a
 reduced prime alternating diagram is a complete invariant of the link type, and
 
-``flype_code(D)`` = :func:`pipeline.diagrams.canonical.canonical_text` of the orbit
-member with the fewest twist regions (maximal chains of bigons) and, among those, the
-smallest alternating map code (:func:`pipeline.diagrams.shadow.alternating_codes`)
+any function of the flype class that separates classes names the link.  Three routes:
 
-is a normal form: equal codes iff the same link.  ``canonical_text`` already
-identifies relabelling, sphere isotopy, turning the diagram over (a rotation by π of
-3-space) and reversal of any components, so the code names the *unoriented* link
-type (keys name unoriented types, DESIGN.md); the mirror image is not identified.
-The mirror's code is computed from the mirrored members (the mirror of a flype is a
-flype), and a type is amphichiral iff both codes agree.
+``route="tree"`` (the default, used for knot keys ``alt:``): the compositional code of
+:mod:`pipeline.diagrams.flype_tree` (``ft:`` text), computed bottom-up over the
+3-connected components of the Tait graph without any search; that it is a complete
+invariant of the flype class is proved there (Lemmas 1–3 and the flyping theorem), and
+checked against the orbit route.  :func:`diagram_of_code` rebuilds the member it
+describes (:func:`pipeline.diagrams.flype_realize.realize`), so
+``flype_code(diagram_of_code(code)) == code``.
 
-Fast route and proof status
----------------------------
-The members with the fewest twist regions are those in which every flype circuit's
-crossings are gathered in one twist region (:mod:`pipeline.diagrams.flype_circuits`);
-they are found by a search over *block flypes* (a whole twist region flyped across a
-tangle) instead of the whole orbit.  Soundness (equal codes ⟹ same link) holds
-unconditionally: every member searched is reached by flypes.  Completeness (the
-search reaches every gathered member, so the same link ⟹ equal codes) rests on the
-flype-circuit structure of Menasco–Thistlethwaite (every circuit can be gathered, and
-walked from gap to gap, by block flypes); it is checked against the whole-orbit
-search (:func:`flype_code_by_orbit`, kept as the slow reference) on random diagrams
-in tests/test_flype.py, where both routes return the same text.
+``route="orbit"`` (the reference): :func:`pipeline.diagrams.canonical.canonical_text`
+of the orbit member with the fewest twist regions (maximal chains of bigons) and, among
+those, the smallest alternating map code (:func:`pipeline.diagrams.shadow.alternating_codes`),
+by a breadth-first search of the whole orbit — a normal form because the whole orbit is
+searched (a ``pd:`` text).
+
+``route="gathered"`` (not used for keys): the same rule searched over block flypes only
+(:mod:`pipeline.diagrams.flype_circuits`); sound, but its completeness is not proven
+(equal to the orbit route on every diagram tested).
+
+Every code names the *unoriented* link type (relabelling, sphere isotopy, turning the
+diagram over and reversal of components are identified; keys name unoriented types,
+DESIGN.md); the mirror image is not identified.  The mirror's code comes from the
+mirrored members (the mirror of a flype is a flype), and a type is amphichiral iff both
+codes agree.
 
 How flypes are found
 --------------------
@@ -83,6 +85,8 @@ from ..errors import BudgetExceeded, KnotLedgerError
 from .canonical import canonical_text
 from .diagram import Diagram
 from .flype_circuits import gathered_states, twist_count
+from .flype_realize import realize
+from .flype_tree import tree_codes
 from .shadow import ShadowFlype, alternating_codes, apply_shadow_flype, shadow_flypes, to_diagram, twins
 
 __all__ = [
@@ -94,6 +98,7 @@ __all__ = [
     "apply_flype",
     "flypes",
     "flype_orbit",
+    "orbit_roots",
     "flype_code",
     "flype_codes",
     "flype_code_by_orbit",
@@ -103,8 +108,7 @@ __all__ = [
 ]
 
 #: Default budget: the most members one flype search may record before giving up
-#: (gathered members for flype_code, about 5-7 ms each at 40 crossings; whole
-#: orbit for the reference routes).
+#: (routes "orbit" and "gathered"; the default tree route does not search).
 FLYPE_BUDGET = 2000
 
 
@@ -188,7 +192,10 @@ def flypes(diagram: Diagram) -> Iterator[Diagram]:
 
 # ---------------------------------------------------------------------- codes
 def diagram_of_code(code: str) -> Diagram:
-    """The diagram named by a code (a ``pd:`` text without free loops)."""
+    """The diagram named by a code: a ``pd:`` text without free loops (orbit and
+    gathered routes) or an ``ft:`` code (the member it describes, deterministic)."""
+    if code.startswith("ft:"):
+        return realize(code)
     return Diagram.from_pd(json.loads(code[3:]))
 
 
@@ -210,6 +217,30 @@ def _orbit_states(diagram: Diagram, budget: int) -> dict:
                 states[code] = (tw2, over2)
                 queue.append((tw2, over2))
     return states
+
+
+def orbit_roots(diagrams: dict) -> dict:
+    """{key: root}: the flype orbits of a set of diagrams closed under flypes.
+
+    ``diagrams`` maps each alternating map code (``alternating_codes(...)[0]``) to its
+    (twins, over); two keys get the same root iff one-flype steps join them (the
+    reference partition of the tests and benchmarks; a key missing from ``diagrams``
+    raises KeyError, i.e. the set was not closed).
+    """
+    par = {k: k for k in diagrams}
+
+    def find(k):
+        while par[k] != k:
+            par[k] = par[par[k]]
+            k = par[k]
+        return k
+
+    for k, (tw, over) in diagrams.items():
+        for m in shadow_flypes(tw):
+            a, b = find(k), find(alternating_codes(*apply_shadow_flype(tw, over, m))[0])
+            if a != b:
+                par[max(a, b)] = min(a, b)
+    return {k: find(k) for k in diagrams}
 
 
 def _gathered(diagram: Diagram, budget: int) -> dict:
@@ -264,30 +295,30 @@ def _states(diagram: Diagram, budget: int, route: str) -> dict:
 
 
 def flype_codes(diagram: Diagram, *, budget: int = FLYPE_BUDGET,
-                route: str = "orbit") -> tuple[str, str]:
+                route: str = "tree") -> tuple[str, str]:
     """(code of the flype class, code of the mirror image's flype class).
 
-    The code is the :func:`canonical_text` of the orbit member with the fewest twist
-    regions and, among those, the smallest alternating map code
-    (:func:`pipeline.diagrams.shadow.alternating_codes`); the mirror's code is found
-    from the same members with the crossing bit flipped.
-
-    ``route="orbit"`` (the default, used for knot keys) searches the whole flype orbit,
-    so equal codes iff same link is a theorem (Menasco–Thistlethwaite 1993).
-    ``route="gathered"`` searches only the members whose flype circuits are gathered
-    (:func:`pipeline.diagrams.flype_circuits.gathered_states`): much faster, and equal to
-    the orbit route on every diagram tested, but that it always reaches the same minimum
-    is checked empirically, not proven — so no key or verdict is built on it.
+    ``route="tree"`` (the default, used for knot keys): the compositional ``ft:`` code
+    (:func:`pipeline.diagrams.flype_tree.tree_codes`; no search, ``budget`` unused);
+    equal codes iff same link is a theorem (flyping theorem and the lemmas there).
+    ``route="orbit"``: the :func:`canonical_text` of the orbit member with the fewest
+    twist regions and then the smallest alternating map code, by a search of the whole
+    orbit (the reference; the mirror's code from the same members with the crossing bit
+    flipped).  ``route="gathered"``: the same rule over block flypes only
+    (:func:`pipeline.diagrams.flype_circuits.gathered_states`), checked empirically
+    against the orbit route, not proven — no key or verdict is built on it.
     """
+    if route == "tree":
+        return tree_codes(diagram)
     return _codes_of(_states(diagram, budget, route))
 
 
 def flype_codes_by_orbit(diagram: Diagram, *, budget: int = FLYPE_BUDGET) -> tuple[str, str]:
-    """:func:`flype_codes` by the whole-orbit search (the proven route; the default)."""
+    """:func:`flype_codes` by the whole-orbit search (the reference route)."""
     return flype_codes(diagram, budget=budget, route="orbit")
 
 
-def flype_code(diagram: Diagram, *, budget: int = FLYPE_BUDGET, route: str = "orbit") -> str:
+def flype_code(diagram: Diagram, *, budget: int = FLYPE_BUDGET, route: str = "tree") -> str:
     """Canonical code of the flype class of a reduced prime alternating diagram.
 
     Parameters
@@ -295,18 +326,17 @@ def flype_code(diagram: Diagram, *, budget: int = FLYPE_BUDGET, route: str = "or
     diagram : Diagram
         Reduced, visibly prime, alternating, one piece.
     budget : int
-        Most orbit members recorded by the search.
-    route : {"orbit", "gathered"}
-        The whole-orbit search (default; proven) or the fast gathered search (checked
-        empirically against the orbit route, not proven; see :func:`flype_codes`).
+        Most orbit members recorded by a search (routes "orbit", "gathered").
+    route : {"tree", "orbit", "gathered"}
+        The compositional code (default; proven, no search), the whole-orbit search
+        (proven, slow) or the gathered search (not proven); see :func:`flype_codes`.
 
     Returns
     -------
     str
-        A ``pd:`` text of a member of the class (the one with the fewest twist
-        regions, then the smallest alternating map code); two such diagrams have the
-        same code iff they are diagrams of the same unoriented link (flyping theorem,
-        Menasco–Thistlethwaite 1993) — for the default orbit route.
+        ``ft:`` code (tree) or ``pd:`` text of a member (orbit, gathered); two
+        diagrams have the same code iff they are diagrams of the same unoriented link
+        (flyping theorem, Menasco–Thistlethwaite 1993) — for the tree and orbit routes.
 
     Examples
     --------
@@ -314,12 +344,14 @@ def flype_code(diagram: Diagram, *, budget: int = FLYPE_BUDGET, route: str = "or
     >>> flype_code(parse("conway:2 2")) == flype_code(parse("braid:1,-2,1,-2"))
     True
     """
+    if route == "tree":
+        return tree_codes(diagram)[0]
     states = _states(diagram, budget, route)
     return canonical_text(to_diagram(*states[min(states)]))
 
 
 def flype_code_by_orbit(diagram: Diagram, *, budget: int = FLYPE_BUDGET) -> str:
-    """:func:`flype_code` by the whole-orbit search (the proven route; the default)."""
+    """:func:`flype_code` by the whole-orbit search (the reference route)."""
     return flype_code(diagram, budget=budget, route="orbit")
 
 

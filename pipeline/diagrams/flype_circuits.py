@@ -39,11 +39,9 @@ What is left
 The gathered members are still a product over circuits of the gap that holds each
 circuit's crossings (two for a lone crossing beside a tangle, which turns the tangle
 over as it moves), so diagrams with many circuits keep hundreds or thousands of
-gathered members (reports/bench_flype.md).  Choosing each circuit's gap
-independently needs a canonical code of every tangle up to its own flypes, bottom-up
-over the nesting of the circuits — in the checkerboard (Tait) graph, a decomposition
-at its 2-vertex cuts in which flypes move single edges inside series and parallel
-pieces; not done here.
+gathered members (reports/bench_flype.md).  Choosing each circuit's gap independently,
+bottom-up over the nesting of the circuits, is what :mod:`pipeline.diagrams.flype_tree`
+does (the default route); this search is kept as a non-key comparison route.
 """
 
 from __future__ import annotations

@@ -26,8 +26,10 @@ Math. Z. 65, 1956); no match *proves* ``D`` is not two-bridge (the argument abov
 read backwards) and the key is the flype key.
 
 *Flype key* (text of this code base): ``alt:`` followed by the first 24 hex digits of
-the sha256 of the UTF-8 flype code (``pd:[[...]]``, :func:`pipeline.diagrams.flype.flype_code`);
-the mirror key is the same digest of the mirror code.  Amphichiral iff both codes agree.
+the sha256 of the UTF-8 flype code (the compositional ``ft:...`` code,
+:func:`pipeline.diagrams.flype.flype_code`, computed without a search, so ``budget``
+only bounds the reference routes); the mirror key is the same digest of the mirror
+code.  Amphichiral iff both codes agree.
 Crossing number certified = n (Kauffman, Murasugi, Thistlethwaite 1987).
 
 Rule (a): split and composite diagrams

@@ -32,7 +32,7 @@ ALGORITHM_VERSIONS = {
     "chirality": "2",  # strength: chiral (homfly), chiral (khovanov)
     # --- begin: issue 11 (simplification, primality, flype normal form in the rows) ---
     "simplify": "1",
-    "flype": "1",
+    "flype": "2",  # 2: compositional ft: code (flype_tree) instead of the orbit pd: text
     # --- end: issue 11 ---
     # ---- strength (issue 12)
     "homfly": "1",
