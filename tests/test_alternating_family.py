@@ -58,9 +58,13 @@ def test_every_diagram_is_reduced_alternating_with_jones_span_n(n):
 def test_each_row_is_the_smaller_flype_code_of_its_chiral_pair(n):
     for code in alt.codes(n, links=True):
         d = diagram_of_code(code)
-        # the rows are named by the whole-orbit rule (the keys use the ft: code)
-        assert flype_code(d, route="orbit") == code
-        assert code in flype_codes(d, route="orbit")
+        # the rows are named by their ft: flype code, the smaller of the chiral pair;
+        # the code rebuilt into a diagram gives the code back
+        assert flype_code(d) == code
+        pair = flype_codes(d)
+        assert code in pair and code == min(pair, key=lambda c: (len(c), c))
+        # the mirror's code rebuilt into a diagram gives the same chiral pair back
+        assert set(flype_codes(diagram_of_code(pair[1]))) == set(pair)
 
 
 @pytest.mark.parametrize("n", range(3, 9))

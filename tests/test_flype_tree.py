@@ -21,7 +21,7 @@ import pytest
 from pipeline import parse
 from pipeline.diagrams.canonical import turn_over_pd
 from pipeline.diagrams.diagram import Diagram
-from pipeline.diagrams.families.alternating import _level, random_diagram
+from pipeline.diagrams.families.alternating import _shadows, random_diagram
 from pipeline.diagrams.flype import (
     check_reduced_prime_alternating, diagram_of_code, flype_code, flype_codes, flypes, orbit_roots)
 from pipeline.diagrams.flype_circuits import gathered_states
@@ -33,6 +33,11 @@ from pipeline.errors import NotationError
 from pipeline.invariants.jones import jones_polynomial
 from test_flype import _shuffled
 
+
+
+def _level(n):
+    """Every prime reduced shadow with n crossings (the enumeration's depth-first route)."""
+    return [tw for tw, _ in _shadows(n)]
 
 def _all_diagrams(n):
     """{code0: (twins, over)}: every alternating diagram (both mirror images) of every

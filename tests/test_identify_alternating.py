@@ -72,7 +72,7 @@ def test_figure_eight_conway_braid_pd_dt_alt_one_key():
 @pytest.mark.parametrize("family, others", [
     ("rational:13/5", ["conway:2 1 1 2", "braid:-1,2,2,-1,-1,2", "alt:6:3"]),        # 6_3
     ("rational:7/2", ["conway:3 2", "braid:1,1,1,2,-1,2"]),                           # 5_2
-    ("torus:2,5", ["braid:1,1,1,1,1", "alt:5:2", "dt:6 8 10 2 4"]),                  # 5_1
+    ("torus:2,5", ["braid:1,1,1,1,1", "alt:5:1", "dt:6 8 10 2 4"]),                  # 5_1
     ("conway:3 1 3", ["rational:15/4"]),                                              # 7_4
 ])
 def test_two_bridge_knots_one_key_whatever_the_notation(family, others):
@@ -252,7 +252,10 @@ def test_report_and_show(census, capsys):
 
 # ---------------------------------------------------------------------- the knots-table check
 def test_knots_table_flype_class_check():
-    m = _row("pretzel:-3,-3,-2", row_id=0)
+    # the enumeration's row of this chiral pair is the chirality with the smaller ft:
+    # code, which is the picture of P(3,3,2) (its mirror P(-3,-3,-2) is keyed apart)
+    m = _row("pretzel:3,3,2", row_id=0)
+    assert _row("pretzel:-3,-3,-2")["knot_key"] == m["mirror_key"] != m["knot_key"]
     alt = [_row(f"alt:8:{i}", row_id=i) for i in range(1, 19)]
     twin = [r for r in alt if r["flype_code"] == m["flype_code"]]
     # the family row now has the flype key of its class (rule (b′)): one knots row
@@ -385,10 +388,21 @@ def test_mutant_pretzels_keep_distinct_flype_keys():
     assert _row("pretzel:3,5,3,2")["knot_key"] == b["knot_key"]          # a rotation: the same link
 
 
-def test_montesinos_cross_check_and_budget_fallback():
+def test_montesinos_cross_check_and_budget_fallback(monkeypatch):
     a = _row("montesinos:2/5,1/3,1/2")
+    # the compositional flype code never searches, so a budget of 1 changes nothing ...
+    assert _row("montesinos:2/5,1/3,1/2", row_id=1, flype_budget=1)["knot_key"] == a["knot_key"]
+    # ... but a flype route that gives up (BudgetExceeded) must keep the family key, never guess
+    from pipeline.errors import BudgetExceeded
+    from pipeline.identify import flype_keys
+
+    def over_budget(*args, **kwargs):
+        raise BudgetExceeded("flype", 1)
+
+    monkeypatch.setattr(flype_keys, "alternating_nf", over_budget)
     low = _row("montesinos:2/5,1/3,1/2", row_id=1, flype_budget=1)
-    # over the flype budget the family key is kept and the reason names the budget
+    monkeypatch.undo()
+    low["flype_code"] = None   # a route that gave up has no flype code to store
     assert low["knot_key"] == a["bs_key"] and "budget" in low["key_reason"]
     table = {t["knot_key"]: t for t in build_knots_table([a, low])}
     assert "the same type as" in table[a["knot_key"]]["distinctness_note"]

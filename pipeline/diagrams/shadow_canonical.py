@@ -10,10 +10,9 @@ both rotation senses, so it names the shadow up to every homeomorphism of the sp
 
 from __future__ import annotations
 
-from .shadow import alternating_codes, alternating_over, apply_shadow_flype, faces, shadow_flypes
+from .shadow import faces
 
-__all__ = ["NEW_SMOOTHING", "smoothing", "start_invariants", "shadow_code", "twist_region_count", "shadow_order_key",
-           "flype_local_minimum"]
+__all__ = ["NEW_SMOOTHING", "smoothing", "start_invariants", "shadow_code"]
 
 #: The smoothing of the crossing added by :func:`pipeline.diagrams.shadow.extensions` that gives its parent back.
 NEW_SMOOTHING = 1
@@ -129,55 +128,3 @@ def shadow_code(tw: list[int], inv: dict | None = None
             best, found = w[0], []
         found.append((w[1], w[2], eps))
     return tuple(best), found
-
-
-def twist_region_count(tw: list[int]) -> int:
-    """Number of twist regions: classes of crossings joined by bigon faces (a lone
-    crossing is a region of its own)."""
-    face = faces(tw)
-    corners: dict[int, list[int]] = {}
-    for h, f in enumerate(face):
-        corners.setdefault(f, []).append(h >> 2)
-    parent = list(range(len(tw) // 4))
-
-    def find(i: int) -> int:
-        while parent[i] != i:
-            parent[i] = parent[parent[i]]
-            i = parent[i]
-        return i
-
-    regions = len(parent)
-    for cs in corners.values():
-        if len(cs) == 2:
-            a, b = find(cs[0]), find(cs[1])
-            if a != b:
-                parent[a] = b
-                regions -= 1
-    return regions
-
-
-def shadow_order_key(tw: list[int], over: list[bool]) -> tuple[int, tuple[int, ...]]:
-    """(twist regions, smaller alternating map code of the two mirror diagrams): the order
-    in which the class code of :func:`pipeline.diagrams.flype.flype_code` (up to mirror
-    image) is the smallest member."""
-    return twist_region_count(tw), min(alternating_codes(tw, over))
-
-
-def flype_local_minimum(tw: list[int]) -> bool:
-    """True when no one flype (:func:`pipeline.diagrams.shadow.shadow_flypes`) leads to a
-    shadow smaller in :func:`shadow_order_key` (a necessary condition for the smallest
-    member of a flype class)."""
-    over = alternating_over(tw)
-    here = twist_region_count(tw)
-    ties = []
-    for m in shadow_flypes(tw):                       # first the cheap test: fewer regions
-        tw2, over2 = apply_shadow_flype(tw, over, m)
-        tc = twist_region_count(tw2)
-        if tc < here:
-            return False
-        if tc == here:
-            ties.append((tw2, over2))
-    if ties:
-        code = min(alternating_codes(tw, over))
-        return not any(min(alternating_codes(tw2, over2)) < code for tw2, over2 in ties)
-    return True

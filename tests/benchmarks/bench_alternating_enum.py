@@ -39,7 +39,7 @@ def _old_codes(n: int) -> list[str]:
     from pipeline.diagrams.shadow import (alternating_codes, alternating_over, apply_shadow_flype,
                                           extensions, n_components, prime_reduced, shadow_flypes,
                                           to_diagram)
-    from pipeline.diagrams.shadow_canonical import twist_region_count
+    from pipeline.diagrams.flype_circuits import twist_count as twist_region_count
 
     def key(tw):
         return min(alternating_codes(tw, alternating_over(tw)))
@@ -106,6 +106,9 @@ def _child(route: str, n: int, q) -> None:
     codes = alternating.codes(n) if route == "new" else _old_codes(n)
     dt = time.perf_counter() - t0
     peak = resource.getrusage(resource.RUSAGE_SELF).ru_maxrss
+    if route == "old":  # the former route names a type by a member's pd: text; compare by ft: code
+        from pipeline.diagrams.flype import _order, diagram_of_code, flype_codes
+        codes = sorted((min(flype_codes(diagram_of_code(c)), key=_order) for c in codes), key=_order)
     digest = hashlib.sha256("\n".join(codes).encode()).hexdigest()[:12]
     size = sum(len(c) for c in codes)
     q.put((len(codes), dt, base, peak, digest, size))

@@ -47,18 +47,16 @@ only when it is the canonical member of its own flype class (its
 shadow code equals its own), so classes need no table: each type is emitted from
 exactly one shadow.  By the flyping theorem (W. Menasco, M. Thistlethwaite, Annals of
 Math. 138, 1993) flype classes up to mirror image are exactly the prime alternating
-link types up to mirror image.  Shortcut: a shadow that one flype takes to fewer twist
-regions, or to as many and a smaller alternating map code, is not searched (under the
-rule of ``flype_code`` the code's diagram is the smallest member of its class in that
-order); every code found is checked to come from a shadow that passes this test, so a
-change of that rule raises instead of losing types.
+link types up to mirror image.  The codes come from the compositional route of
+:mod:`pipeline.diagrams.flype_tree` (no orbit search), a few milliseconds a shadow.
 
 Order (documented, deterministic)
 ---------------------------------
-Each type is given by ``code``: of the type and its mirror image, the
-:func:`pipeline.diagrams.flype.flype_code` whose alternating map code is smaller (so
-``flype_code(diagram_of_code(code)) == code`` and ``code`` is one of
-``flype_codes(...)``); its diagram is the diagram of that code.  Types are sorted by
+Each type is given by ``code``: of the type's and its mirror image's
+:func:`pipeline.diagrams.flype.flype_code` (``ft:`` texts) the smaller one, shortest
+text first, then as a string (so ``flype_code(diagram_of_code(code)) == code`` and
+``code`` is one of ``flype_codes(...)``); its diagram is the member that code
+describes (:func:`pipeline.diagrams.flype.diagram_of_code`).  Types are sorted by
 code (shortest text first, then as a string) and numbered from 1: ``diagram(n, i)``
 is the i-th.  With ``links=True`` the knots come first in the same order, then the
 links (components > 1) sorted the same way.  The order depends only on the codes,
@@ -72,7 +70,7 @@ M. Thistlethwaite, J. Weeks, "The first 1,701,936 knots", Math. Intelligencer 20
 Memory: the generation holds only the current path of the depth-first search (at
 most n parents with their pending extensions and the codes of their accepted
 children) — flat in n.  To sort the types, the codes of level n are held (a list of
-``pd:`` texts, 820 kB for the 4878 knots of n = 13) and cached per (n, links) for
+``ft:`` texts, under 1 MB for the 4878 knots of n = 13) and cached per (n, links) for
 :func:`diagram`; measured in reports/bench_alternating_enum.md.
 
 References
@@ -93,8 +91,8 @@ from typing import Iterator
 from ...errors import NotationError
 from ..diagram import Diagram
 from ..flype import _order, diagram_of_code, flype_codes
-from ..shadow import alternating_codes, alternating_over, extensions, n_components, prime_reduced, to_diagram, twins
-from ..shadow_canonical import NEW_SMOOTHING, flype_local_minimum, shadow_code, smoothing, start_invariants
+from ..shadow import alternating_over, extensions, n_components, prime_reduced, to_diagram, twins
+from ..shadow_canonical import NEW_SMOOTHING, shadow_code, smoothing, start_invariants
 
 __all__ = ["MIN_CROSSINGS", "MAX_CROSSINGS", "codes", "diagrams", "diagram", "from_notation",
            "random_diagram"]
@@ -189,27 +187,16 @@ def _class_code(tw: list[int], code: tuple[int, ...]) -> str | None:
     """The type's code when the shadow ``tw`` (shadow code ``code``) is its canonical
     member (the shadow of the code's diagram), else None.
 
-    Only shadows that no one flype makes smaller in
-    :func:`~pipeline.diagrams.shadow_canonical.shadow_order_key` are searched: the code's
-    diagram is the smallest member of its class in that order (the rule of
-    ``flype_code``), hence such a shadow.  That shortcut is checked on every code found
-    (a code's diagram failing it raises instead of a type silently missing): with it,
-    the smallest member of every class is searched, its code's shadow passes, and so
-    every type is emitted from that shadow, whatever member ``flype_code`` names.
+    The type's code is the smaller (:func:`~pipeline.diagrams.flype._order`) of the two
+    :func:`~pipeline.diagrams.flype.flype_codes` of the alternating diagram on ``tw``
+    (the type's and its mirror's); :func:`~pipeline.diagrams.flype.diagram_of_code`
+    rebuilds the member that code describes, and its shadow is the canonical member.
+    Every shadow of the class gives the same code, so exactly one shadow emits it.
     """
-    if not flype_local_minimum(tw):
-        return None
     a, b = flype_codes(to_diagram(tw, alternating_over(tw)))
-    if a != b:
-        da, db = diagram_of_code(a), diagram_of_code(b)
-        if alternating_codes(twins(db), [True] * db.n_crossings)[0] < \
-                alternating_codes(twins(da), [True] * da.n_crossings)[0]:
-            a = b
-    best = twins(diagram_of_code(a))
-    if not flype_local_minimum(best):
-        raise RuntimeError("alternating: a class code's diagram is not a flype-local minimum "
-                           "(the shortcut of _class_code no longer holds)")
-    return a if shadow_code(best)[0] == code else None
+    best = min(a, b, key=_order)
+    member = diagram_of_code(best)
+    return best if shadow_code(twins(member))[0] == code else None
 
 
 _CACHE: dict[tuple[int, bool], tuple[str, ...]] = {}
