@@ -31,7 +31,7 @@ from .diagram import Diagram
 
 __all__ = [
     "twins", "faces", "prime_reduced", "n_components", "alternating_over", "to_diagram",
-    "alternating_codes", "ShadowFlype", "shadow_flypes", "apply_shadow_flype", "extensions",
+    "alternating_codes", "walk", "ShadowFlype", "shadow_flypes", "apply_shadow_flype", "extensions",
 ]
 
 
@@ -127,8 +127,10 @@ def to_diagram(tw: list[int], over: list[bool]) -> Diagram:
     return b.diagram()
 
 
-def _walk(tw: list[int], h: int, eps: int, best):
-    """Map code from dart ``h`` in rotation sense ``eps``; None unless smaller than best."""
+def walk(tw: list[int], h: int, eps: int, best):
+    """Map code from dart ``h`` in rotation sense ``eps``, with the crossings in the order
+    met and the slot each was entered by: ``(code, order, ref, less)``, ``less`` = code <
+    ``best``; None as soon as the code exceeds ``best`` (None: no bound)."""
     num = {h >> 2: 0}
     order, ref = [h >> 2], [h & 3]
     code: list[int] = []
@@ -156,7 +158,13 @@ def _walk(tw: list[int], h: int, eps: int, best):
                     less = True
             code.append(tok)
             pos += 1
-    return code if less else None
+    return code, order, ref, less
+
+
+def _walk(tw: list[int], h: int, eps: int, best):
+    """Map code from dart ``h`` in rotation sense ``eps``; None unless smaller than best."""
+    w = walk(tw, h, eps, best)
+    return w[0] if w is not None and w[3] else None
 
 
 _NONE = float("inf")  # above every start invariant

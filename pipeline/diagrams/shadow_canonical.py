@@ -10,7 +10,7 @@ both rotation senses, so it names the shadow up to every homeomorphism of the sp
 
 from __future__ import annotations
 
-from .shadow import faces
+from .shadow import faces, walk
 
 __all__ = ["NEW_SMOOTHING", "smoothing", "start_invariants", "shadow_code"]
 
@@ -40,38 +40,6 @@ def smoothing(tw: list[int], c: int, t: int) -> list[int] | None:
             new[g] = 4 * c + k
     del new[4 * last:]
     return new
-
-
-def _walk_full(tw: list[int], h: int, eps: int, best):
-    """(code, order, ref) of the walk from (h, eps); None when its code exceeds ``best``."""
-    num = {h >> 2: 0}
-    order, ref = [h >> 2], [h & 3]
-    code: list[int] = []
-    less = best is None
-    pos = k = 0
-    while k < len(order):
-        i, r0 = order[k], ref[k]
-        k += 1
-        for m in range(4):
-            g = tw[4 * i + ((r0 + eps * m) & 3)]
-            j = g >> 2
-            q = num.get(j)
-            if q is None:
-                q = num[j] = len(order)
-                order.append(j)
-                ref.append(g & 3)
-                tok = 4 * q
-            else:
-                tok = 4 * q + ((((g & 3) - ref[q]) * eps) & 3)
-            if not less:
-                bt = best[pos]
-                if tok > bt:
-                    return None
-                if tok < bt:
-                    less = True
-            code.append(tok)
-            pos += 1
-    return code, order, ref
 
 
 def start_invariants(tw: list[int]) -> dict[tuple[int, int], int]:
@@ -121,7 +89,7 @@ def shadow_code(tw: list[int], inv: dict | None = None
     for (h, eps), v in inv.items():
         if v != low:
             continue
-        w = _walk_full(tw, h, eps, best)
+        w = walk(tw, h, eps, best)
         if w is None:
             continue
         if best is None or w[0] != best:
