@@ -207,3 +207,22 @@ def test_malformed_codes_are_refused_in_one_line(bad):
     with pytest.raises(NotationError) as info:
         realize(bad)
     assert "\n" not in str(info.value)
+
+
+def test_code_survives_reidemeister_moves_followed_by_simplification():
+    # R-moves change the diagram, not the link: once simplification gives a reduced
+    # alternating diagram back (it must have n crossings, Kauffman/Murasugi/Thistlethwaite
+    # 1987), its code must be the original's exactly (flyping theorem).
+    from _moves import complicate
+    from pipeline.diagrams.simplify import simplify
+    back = 0
+    for seed in range(240):
+        n = 5 + seed % 10
+        d = random_diagram(n, seed=seed)
+        big = complicate(d, 2 + seed % 3, seed)
+        r = simplify(big, seed=seed).diagram
+        assert r.n_crossings >= n
+        if r.n_crossings == n and r.is_alternating():
+            back += 1
+            assert flype_code(r) == flype_code(d), (n, seed)
+    assert back >= 150   # most complicated diagrams come back to a reduced alternating one
