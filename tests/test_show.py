@@ -137,5 +137,9 @@ def test_page_prints_homfly_khovanov_s_and_the_signature_function(capsys):
     assert "values [0, -2] between jumps at θ/2π = 1/6 (σ_-1 = -2)" in out
     # the figure-eight: P = v⁻² − 1 − z² + v² (memory), amphichiral, so no jump
     code, out, _ = _run(capsys, "conway:2 2")
-    assert "P(v,z) = v^(-2) - 1 - z^2 + v^2" in out and "θ/2π = none" in out
+    assert "P(v,z) = v^(-2) - 1 - z^2 + v^2" in out and "between jumps at none" in out
     assert "Z/2 at (-1,-3) Z/2 at (2,3)" in out  # Bar-Natan 2002, tables (memory)
+    # 5_2 = b(7,3): Δ = 2t − 3 + 2t⁻¹ (memory; det 7 = |Δ(−1)|), so ω + 1/ω = 3/2 exactly, an
+    # angle that is no rational multiple of 2π: the jump is printed as the exact value of 2cos θ
+    code, out, _ = _run(capsys, "rational:7/3")
+    assert "Δ(t) = 2t^(-1) - 3 + 2t" in out and "between jumps at 2cos θ = 3/2 (" in out

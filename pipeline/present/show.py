@@ -334,9 +334,13 @@ def _strength_lines(row: dict) -> list[str]:
     tl = row.get("tristram_levine")
     if tl is not None:
         data = tl.to_json() if hasattr(tl, "to_json") else tl
-        angles = [j.get("angle") or "~" for j in data.get("jumps", [])]
-        lines.append(f"  σ_ω        values {list(data.get('values', []))} between jumps at θ/2π = "
-                     f"{', '.join(map(str, angles)) or 'none'} (σ_-1 = {data.get('at_minus_one')})")
+        # a jump at a root of unity has its angle; otherwise the exact isolating interval
+        # of x = ω + 1/ω = 2cos θ (a root of an integer factor of Δ, Sturm sequences)
+        angles = [f"θ/2π = {j['angle']}" if j.get("angle") else
+                  f"2cos θ = {j['interval'][0]}" if j["interval"][0] == j["interval"][1] else
+                  f"2cos θ in [{j['interval'][0]}, {j['interval'][1]}]" for j in data.get("jumps", [])]
+        lines.append(f"  σ_ω        values {list(data.get('values', []))} between jumps at "
+                     f"{'; '.join(angles) or 'none'} (σ_-1 = {data.get('at_minus_one')})")
     return lines
 
 
