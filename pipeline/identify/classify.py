@@ -86,8 +86,9 @@ from typing import Optional, Sequence
 from ..diagrams.canonical import canonical_text, diagram_id
 from ..diagrams import simplify as _diagram_facts
 from ..diagrams.diagram import Diagram
-from ..diagrams.notation import parse_notation, split_notation
-from ..errors import KnotLedgerError
+from ..diagrams.families.two_bridge import fraction_of
+from ..diagrams.notation import parse, parse_notation, split_notation
+from ..errors import BudgetExceeded, KnotLedgerError
 from ..invariants.row import InvariantValues
 from .fingerprint import fingerprint, jones_orientation_set, mirror_fingerprint
 from .normal_forms import (CN_ALT, NormalForm, alternating_montesinos, montesinos_nf, pretzel_nf,
@@ -124,7 +125,6 @@ def normal_form(row: dict) -> Optional[NormalForm]:
     parser's numbers, no second reading of the string); a notation that does not parse
     has no normal form.
     """
-    from ..diagrams.families.two_bridge import fraction_of
     got = _parsed(row)
     if got is None:
         return None
@@ -162,9 +162,6 @@ def _alternating_montesinos_key(nf: NormalForm, row: dict, st, budget: int, jone
     alternating Montesinos link; over the flype budget the ``mont:`` key is kept and the
     reason says so.
     """
-    from ..diagrams.notation import parse
-    from ..errors import BudgetExceeded
-    from .knots_table import KeyConflictError
     tangles = _tangles(row)
     fr = None if tangles is None else alternating_montesinos(tangles)
     if fr is None:
