@@ -82,6 +82,7 @@ from collections import deque
 from typing import Iterator
 
 from ..errors import BudgetExceeded, KnotLedgerError
+from ..numbers import UnionFind
 from .canonical import canonical_text
 from .diagram import Diagram
 from .flype_circuits import gathered_states, twist_count
@@ -227,20 +228,14 @@ def orbit_roots(diagrams: dict) -> dict:
     reference partition of the tests and benchmarks; a key missing from ``diagrams``
     raises KeyError, i.e. the set was not closed).
     """
-    par = {k: k for k in diagrams}
-
-    def find(k):
-        while par[k] != k:
-            par[k] = par[par[k]]
-            k = par[k]
-        return k
-
+    uf = UnionFind(diagrams)
     for k, (tw, over) in diagrams.items():
         for m in shadow_flypes(tw):
-            a, b = find(k), find(alternating_codes(*apply_shadow_flype(tw, over, m))[0])
-            if a != b:
-                par[max(a, b)] = min(a, b)
-    return {k: find(k) for k in diagrams}
+            other = alternating_codes(*apply_shadow_flype(tw, over, m))[0]
+            if other not in diagrams:
+                raise KeyError(other)
+            uf.union(k, other)
+    return {k: uf.find(k) for k in diagrams}
 
 
 def _gathered(diagram: Diagram, budget: int) -> dict:
